@@ -1,0 +1,96 @@
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import type SQLite from 'better-sqlite3';
+import express, { type Express } from 'express';
+import session from 'express-session';
+import makeSqliteStore from 'better-sqlite3-session-store';
+import helmet from 'helmet';
+import type { DB } from './db/database.ts';
+import { findUserById } from './db/users.ts';
+import { apiNotFound, errorHandler } from './middleware/error-handler.ts';
+import { requireUser, type UserLoader } from './middleware/auth.ts';
+import { Presence } from './presence.ts';
+import { authRoutes } from './routes/auth.ts';
+import { boardRoutes } from './routes/boards.ts';
+import { checkRoutes } from './routes/check.ts';
+import { siteRoutes } from './routes/sites.ts';
+import { userRoutes } from './routes/users.ts';
+
+const SqliteStore = makeSqliteStore(session);
+
+/** The session store's expiry sweep should not keep a process (a script, a test) alive. */
+class QuietSqliteStore extends SqliteStore {
+  override startInterval(): void {
+    setInterval(() => this.clearExpiredSessions(), 15 * 60_000).unref();
+  }
+}
+
+export interface AppOptions {
+  db: DB;
+  /** The same SQLite handle: sessions are kept in the same file. */
+  sqlite: SQLite.Database;
+  sessionSecret: string;
+  /** Built client (vite build output) to serve; omitted in API-only tests. */
+  clientDir?: string;
+  signInAttemptsPerMinute?: number;
+  /** Presence window; tests shorten it. */
+  presence?: Presence;
+}
+
+/** Builds the Express app. It never listens: server/index.ts does, and tests use port 0. */
+export function createApp(options: AppOptions): Express {
+  const { db } = options;
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(helmet());
+  app.use(express.json({ limit: '2mb' }));
+  app.use(
+    session({
+      name: 'boardwalk.sid',
+      secret: options.sessionSecret,
+      store: new QuietSqliteStore({ client: options.sqlite }),
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: 12 * 60 * 60 * 1000 },
+    }),
+  );
+
+  const loadUser: UserLoader = async (id) => {
+    const row = await findUserById(db, id);
+    return row && { id: row.id, email: row.email, name: row.name, role: row.role };
+  };
+  const presence = options.presence ?? new Presence();
+
+  const api = express.Router();
+  api.use('/auth', authRoutes(db, loadUser, { signInAttemptsPerMinute: options.signInAttemptsPerMinute ?? 20 }));
+  api.use(requireUser(loadUser));
+  api.use('/users', userRoutes(db));
+  api.use('/check', checkRoutes());
+  api.use('/boards', boardRoutes(db, presence));
+  api.use('/', siteRoutes(db));
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  if (options.clientDir) {
+    const indexHtml = path.join(options.clientDir, 'index.html');
+    if (!fs.existsSync(indexHtml)) throw new Error(`No built client at ${options.clientDir}: run "npm run build" first.`);
+    app.use(express.static(options.clientDir, { index: false, maxAge: '1h' }));
+    // Client-side routes (/boards/7, /jobs …) all load the single page.
+    app.get('/{*splat}', (_req, res) => res.sendFile(indexHtml));
+  }
+
+  app.use(errorHandler);
+  return app;
+}
+
+/** A session secret kept in the database, made once, so sign-ins survive a restart. */
+export async function sessionSecretFrom(db: DB): Promise<string> {
+  const row = await db.selectFrom('app_settings').select('value').where('key', '=', 'session_secret').executeTakeFirst();
+  if (row) return row.value;
+  const value = crypto.randomBytes(32).toString('hex');
+  await db.insertInto('app_settings').values({ key: 'session_secret', value }).execute();
+  return value;
+}

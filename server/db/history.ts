@@ -1,0 +1,45 @@
+import type { DB } from './database.ts';
+import type { HistoryTable } from './types.ts';
+import type { Insertable } from 'kysely';
+
+export type HistoryEntry = Omit<Insertable<HistoryTable>, 'id' | 'at'> & { at?: string };
+
+/** Appends one change to the board's history and returns its id (the feed's cursor). */
+export async function appendHistory(db: DB, entry: HistoryEntry): Promise<number> {
+  const row = await db
+    .insertInto('history')
+    .values({ ...entry, at: entry.at ?? new Date().toISOString() })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  return row.id;
+}
+
+/** The newest history id of a board (0 when nothing has changed yet). */
+export async function latestCursor(db: DB, boardId: number): Promise<number> {
+  const row = await db
+    .selectFrom('history')
+    .select((eb) => eb.fn.max<number | null>('id').as('id'))
+    .where('board_id', '=', boardId)
+    .executeTakeFirst();
+  return row?.id ?? 0;
+}
+
+export function historySince(db: DB, boardId: number, after: number) {
+  return db
+    .selectFrom('history')
+    .selectAll()
+    .where('board_id', '=', boardId)
+    .where('id', '>', after)
+    .orderBy('id')
+    .execute();
+}
+
+export function cellHistory(db: DB, circuitId: number, columnKey: string) {
+  return db
+    .selectFrom('history')
+    .selectAll()
+    .where('circuit_id', '=', circuitId)
+    .where('column_key', '=', columnKey)
+    .orderBy('id')
+    .execute();
+}

@@ -1,0 +1,35 @@
+import fs from 'node:fs/promises';
+import path from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { Migrator, type Migration, type MigrationProvider } from 'kysely';
+import type { DB } from './database.ts';
+
+const migrationsDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../migrations');
+
+/**
+ * Loads the files in migrations/ with our own `import()`, so it works under tsx and under Vitest
+ * alike (Kysely's FileMigrationProvider imports from inside node_modules, which Vitest bypasses).
+ */
+class MigrationFolderProvider implements MigrationProvider {
+  async getMigrations(): Promise<Record<string, Migration>> {
+    const files = (await fs.readdir(migrationsDir)).filter((f) => /\.ts$/.test(f) && !f.endsWith('.d.ts')).sort();
+    const migrations: Record<string, Migration> = {};
+    for (const file of files) {
+      const mod = (await import(pathToFileURL(path.join(migrationsDir, file)).href)) as Migration;
+      migrations[file.replace(/\.ts$/, '')] = mod;
+    }
+    return migrations;
+  }
+}
+
+/** Runs every pending migration; throws with the failing migration's name if one fails. */
+export async function migrateToLatest(db: DB): Promise<string[]> {
+  const migrator = new Migrator({ db, provider: new MigrationFolderProvider() });
+  const { error, results } = await migrator.migrateToLatest();
+  const failed = results?.find((r) => r.status === 'Error');
+  if (error) {
+    const name = failed ? ` (${failed.migrationName})` : '';
+    throw new Error(`Database migration failed${name}: ${error instanceof Error ? error.message : String(error)}`);
+  }
+  return (results ?? []).filter((r) => r.status === 'Success').map((r) => r.migrationName);
+}

@@ -1,0 +1,132 @@
+import type { Generated, Insertable, Selectable, Updateable } from 'kysely';
+
+/** Table types as SQLite stores them: snake_case, booleans as 0/1, timestamps as ISO text. */
+export interface UserTable {
+  id: Generated<number>;
+  email: string;
+  name: string;
+  role: 'admin' | 'tester' | 'reviewer';
+  password_hash: string;
+  created_at: Generated<string>;
+}
+
+export interface SiteTable {
+  id: Generated<number>;
+  client: string;
+  address: string;
+  description: Generated<string>;
+  earthing: 'TN-S' | 'TN-C-S' | 'TT';
+  nominal_voltage_v: Generated<number>;
+  ze_ohm: number | null;
+  pfc_ka: number | null;
+}
+
+export interface JobTable {
+  id: Generated<number>;
+  site_id: number;
+  kind: 'EIC' | 'EICR';
+  reference: string;
+  visit_date: string;
+  limitations: Generated<string>;
+}
+
+export interface BoardTable {
+  id: Generated<number>;
+  job_id: number;
+  reference: string;
+  location: Generated<string>;
+  supplied_from: Generated<string>;
+  phases: 1 | 3;
+  zdb_ohm: number | null;
+  ipf_ka: number | null;
+  polarity_confirmed: Generated<number>;
+  phase_sequence_confirmed: Generated<number>;
+  instruments: Generated<string>;
+  state: Generated<'open' | 'locked'>;
+  locked_by: number | null;
+  locked_at: string | null;
+  version: Generated<number>;
+}
+
+export interface CircuitTable {
+  id: Generated<number>;
+  board_id: number;
+  position: number;
+  number: string;
+  phase: 'L1' | 'L2' | 'L3' | 'TP' | null;
+  description: Generated<string>;
+  kind: Generated<'ring' | 'radial' | 'spur' | 'distribution'>;
+  wiring_type: Generated<string>;
+  reference_method: Generated<string>;
+  points: number | null;
+  live_csa_mm2: number | null;
+  cpc_csa_mm2: number | null;
+  max_disconnection_s: number | null;
+  device_standard: Generated<string>;
+  device_type: Generated<string>;
+  rating_a: number | null;
+  breaking_ka: number | null;
+  rcd_type: 'AC' | 'A' | 'F' | 'B' | 'S-AC' | 'S-A' | null;
+  rcd_rated_residual_ma: number | null;
+  afdd: 'yes' | 'no' | null;
+  remarks: Generated<string>;
+  spur_ring_id: number | null;
+  spur_origin_point: string | null;
+  spur_length_m: number | null;
+  version: Generated<number>;
+}
+
+export interface CellTable {
+  circuit_id: number;
+  column_key: string;
+  text: string;
+  reason: string | null;
+  version: number;
+  updated_by: number | null;
+  updated_at: string;
+}
+
+/**
+ * One change of any kind. `action` says what: `cell` (a reading), `field` (a circuit detail),
+ * `circuit-created`, `circuit-removed`, `reordered`, `board` (a board detail), `locked`, `unlocked`.
+ */
+export interface HistoryTable {
+  id: Generated<number>;
+  board_id: number;
+  circuit_id: number | null;
+  column_key: string | null;
+  action: string;
+  old_text: string | null;
+  new_text: string | null;
+  user_id: number | null;
+  at: string;
+  how: string;
+  version: number | null;
+}
+
+export interface AppSettingTable {
+  key: string;
+  value: string;
+}
+
+export interface Database {
+  users: UserTable;
+  sites: SiteTable;
+  jobs: JobTable;
+  boards: BoardTable;
+  circuits: CircuitTable;
+  cells: CellTable;
+  history: HistoryTable;
+  app_settings: AppSettingTable;
+}
+
+export type UserRow = Selectable<UserTable>;
+export type NewUserRow = Insertable<UserTable>;
+export type SiteRow = Selectable<SiteTable>;
+export type JobRow = Selectable<JobTable>;
+export type BoardRow = Selectable<BoardTable>;
+export type CircuitRow = Selectable<CircuitTable>;
+export type NewCircuitRow = Insertable<CircuitTable>;
+export type CircuitUpdate = Updateable<CircuitTable>;
+export type CellRow = Selectable<CellTable>;
+export type HistoryRow = Selectable<HistoryTable>;

@@ -1,0 +1,40 @@
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { createApp, sessionSecretFrom } from './app.ts';
+import { openDatabase } from './db/database.ts';
+import { migrateToLatest } from './db/migrate.ts';
+import { databaseHasUsers, seedDemo, demoAccounts, demoPassword } from './db/seed/seed-demo.ts';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+const port = Number(process.env.PORT ?? 3000);
+const databasePath = process.env.DATABASE_PATH ?? path.join(root, 'data', 'boardwalk.sqlite');
+
+const { db, sqlite } = openDatabase(databasePath);
+const applied = await migrateToLatest(db);
+if (applied.length > 0) console.log(`Applied migrations: ${applied.join(', ')}`);
+
+if (!(await databaseHasUsers(db))) {
+  await seedDemo(db);
+  console.log('Seeded the demo data. Demo sign-ins (password for all: %s):', demoPassword);
+  for (const account of demoAccounts) console.log(`  ${account.role.padEnd(8)} ${account.email}`);
+}
+
+const app = createApp({
+  db,
+  sqlite,
+  sessionSecret: process.env.SESSION_SECRET ?? (await sessionSecretFrom(db)),
+  clientDir: process.env.BOARDWALK_API_ONLY ? undefined : path.join(root, 'dist'),
+});
+
+const server = app.listen(port, () => {
+  console.log(`Boardwalk is running at http://localhost:${port} (database: ${databasePath})`);
+});
+
+function shutdown() {
+  server.close(() => {
+    sqlite.close();
+    process.exit(0);
+  });
+}
+process.on('SIGINT', shutdown);
+process.on('SIGTERM', shutdown);

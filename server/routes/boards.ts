@@ -1,0 +1,250 @@
+import { Router } from 'express';
+import {
+  createCircuitBodySchema,
+  reorderCircuitsBodySchema,
+  unlockBoardBodySchema,
+  updateBoardBodySchema,
+  updateCircuitBodySchema,
+  writeCellBodySchema,
+} from '../../shared/schemas/boards.ts';
+import { columnByKey, isDetailKey, isReadingKey } from '../../shared/schemas/columns.ts';
+import { findBoardRow, loadBoard, loadBoardWithContext, loadCircuits, circuitOrder, setBoardLock, updateBoardDetails } from '../db/boards.ts';
+import { writeCell } from '../db/cells.ts';
+import { createCircuit, deleteCircuit, findCircuitRow, reorderCircuits, updateCircuit } from '../db/circuits.ts';
+import type { DB } from '../db/database.ts';
+import { cellHistory, historySince, latestCursor } from '../db/history.ts';
+import { toCell } from '../db/mappers.ts';
+import type { BoardRow } from '../db/types.ts';
+import { userNames } from '../db/users.ts';
+import { findingsFor } from '../findings.ts';
+import { HttpError, notFound } from '../http-error.ts';
+import { currentUser, requireRole } from '../middleware/auth.ts';
+import type { Presence } from '../presence.ts';
+import { idParam } from './params.ts';
+
+async function requireBoard(db: DB, boardId: number): Promise<BoardRow> {
+  const board = await findBoardRow(db, boardId);
+  if (!board) throw notFound(`Board ${boardId}`);
+  return board;
+}
+
+/** Any write to a locked board is refused with 423 and changes nothing. */
+function requireOpen(board: BoardRow): void {
+  if (board.state === 'locked') {
+    throw new HttpError('locked', `Board ${board.reference} is locked; a reviewer must unlock it before anything changes.`);
+  }
+}
+
+export function boardRoutes(db: DB, presence: Presence): Router {
+  const router = Router();
+
+  /** Findings of the whole board (rules compare circuits with each other), filtered to some circuits. */
+  async function boardFindings(boardId: number, circuitId?: number) {
+    const context = await loadBoardWithContext(db, boardId);
+    if (!context) return [];
+    const findings = findingsFor(context);
+    return circuitId === undefined ? findings : findings.filter((f) => f.circuitId === circuitId);
+  }
+
+  router.get('/:boardId', async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    const cursor = await latestCursor(db, boardId);
+    const context = await loadBoardWithContext(db, boardId);
+    if (!context) throw notFound(`Board ${boardId}`);
+    presence.touch(boardId, currentUser(req));
+    res.json({ ...context, findings: findingsFor(context), cursor });
+  });
+
+  /** The live feed: what changed after `after` (a cursor from an earlier answer). */
+  router.get('/:boardId/changes', async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    const after = Number(req.query.after ?? 0);
+    if (!Number.isSafeInteger(after) || after < 0) throw new HttpError('bad_request', 'after must be a cursor from an earlier answer (a whole number).');
+    const user = currentUser(req);
+    presence.touch(boardId, user);
+    const changes = await historySince(db, boardId, after);
+    const context = await loadBoardWithContext(db, boardId);
+    if (!context) throw notFound(`Board ${boardId}`);
+    const changedIds = new Set(changes.map((c) => c.circuit_id).filter((id): id is number => id !== null));
+    res.json({
+      cursor: changes.length > 0 ? changes[changes.length - 1]!.id : after,
+      board: context.board,
+      circuits: context.circuits.filter((c) => changedIds.has(c.id)),
+      order: context.circuits.map((c) => c.id),
+      findings: changes.length > 0 ? findingsFor(context) : [],
+      present: presence.others(boardId, user.id),
+    });
+  });
+
+  router.patch('/:boardId', async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    const body = updateBoardBodySchema.parse(req.body);
+    const user = currentUser(req);
+    await db.transaction().execute(async (trx) => {
+      const board = await requireBoard(trx, boardId);
+      requireOpen(board);
+      if (board.version !== body.version) {
+        throw new HttpError('conflict', 'Someone changed this board’s details meanwhile; look again and retry.', {
+          current: await loadBoard(trx, boardId),
+        });
+      }
+      await updateBoardDetails(trx, board, body.changes, user.id);
+    });
+    res.json({ board: await loadBoard(db, boardId), findings: await boardFindings(boardId), cursor: await latestCursor(db, boardId) });
+  });
+
+  router.post('/:boardId/lock', requireRole('reviewer', 'admin'), async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    const user = currentUser(req);
+    await db.transaction().execute(async (trx) => {
+      const board = await requireBoard(trx, boardId);
+      if (board.state === 'locked') throw new HttpError('locked', `Board ${board.reference} is already locked.`);
+      await setBoardLock(trx, board, { locked: true, userId: user.id });
+    });
+    res.json({ board: await loadBoard(db, boardId) });
+  });
+
+  router.post('/:boardId/unlock', requireRole('reviewer', 'admin'), async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    const { reason } = unlockBoardBodySchema.parse(req.body);
+    const user = currentUser(req);
+    await db.transaction().execute(async (trx) => {
+      const board = await requireBoard(trx, boardId);
+      if (board.state !== 'locked') throw new HttpError('conflict', `Board ${board.reference} is not locked.`);
+      await setBoardLock(trx, board, { locked: false, userId: user.id, reason });
+    });
+    res.json({ board: await loadBoard(db, boardId) });
+  });
+
+  router.post('/:boardId/circuits', async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    const body = createCircuitBodySchema.parse(req.body);
+    const user = currentUser(req);
+    const id = await db.transaction().execute(async (trx) => {
+      requireOpen(await requireBoard(trx, boardId));
+      if (body.afterCircuitId && !(await findCircuitRow(trx, boardId, body.afterCircuitId))) {
+        throw new HttpError('bad_request', `Circuit ${body.afterCircuitId} is not on this board.`);
+      }
+      if (body.spurRingId && !(await findCircuitRow(trx, boardId, body.spurRingId))) {
+        throw new HttpError('bad_request', 'A spur must hang from a ring on the same board.');
+      }
+      return createCircuit(trx, boardId, body, user.id);
+    });
+    const [circuit] = await loadCircuits(db, boardId, [id]);
+    res.status(201).json({ circuit, findings: await boardFindings(boardId, id), cursor: await latestCursor(db, boardId) });
+  });
+
+  router.put('/:boardId/circuits/order', async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    const { circuitIds } = reorderCircuitsBodySchema.parse(req.body);
+    const user = currentUser(req);
+    await db.transaction().execute(async (trx) => {
+      requireOpen(await requireBoard(trx, boardId));
+      const current = await circuitOrder(trx, boardId);
+      const same = current.length === circuitIds.length && new Set(circuitIds).size === circuitIds.length && circuitIds.every((id) => current.includes(id));
+      if (!same) throw new HttpError('bad_request', 'Give every circuit of the board exactly once, in the new order.');
+      await reorderCircuits(trx, boardId, circuitIds, user.id);
+    });
+    res.json({ order: await circuitOrder(db, boardId), cursor: await latestCursor(db, boardId) });
+  });
+
+  router.patch('/:boardId/circuits/:circuitId', async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    const circuitId = idParam(req, 'circuitId');
+    const body = updateCircuitBodySchema.parse(req.body);
+    const user = currentUser(req);
+    await db.transaction().execute(async (trx) => {
+      requireOpen(await requireBoard(trx, boardId));
+      const circuit = await findCircuitRow(trx, boardId, circuitId);
+      if (!circuit) throw notFound(`Circuit ${circuitId} on board ${boardId}`);
+      if (body.changes.spurRingId) {
+        if (body.changes.spurRingId === circuitId) throw new HttpError('bad_request', 'A circuit cannot be a spur of itself.');
+        if (!(await findCircuitRow(trx, boardId, body.changes.spurRingId))) {
+          throw new HttpError('bad_request', 'A spur must hang from a ring on the same board.');
+        }
+      }
+      const result = await updateCircuit(trx, circuit, body.version, body.changes, user.id, body.how ?? 'typed');
+      if (!result.ok) {
+        const [current] = await loadCircuits(trx, boardId, [circuitId]);
+        const fields = result.conflictingFields.map((f) => (isDetailKey(f) ? columnByKey[f].label : f)).join(', ');
+        throw new HttpError('conflict', `Someone else changed ${fields} of circuit ${circuit.number} meanwhile.`, {
+          current,
+          fields: result.conflictingFields,
+        });
+      }
+    });
+    const [circuit] = await loadCircuits(db, boardId, [circuitId]);
+    res.json({ circuit, findings: await boardFindings(boardId, circuitId), cursor: await latestCursor(db, boardId) });
+  });
+
+  router.delete('/:boardId/circuits/:circuitId', async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    const circuitId = idParam(req, 'circuitId');
+    const user = currentUser(req);
+    await db.transaction().execute(async (trx) => {
+      requireOpen(await requireBoard(trx, boardId));
+      const circuit = await findCircuitRow(trx, boardId, circuitId);
+      if (!circuit) throw notFound(`Circuit ${circuitId} on board ${boardId}`);
+      await deleteCircuit(trx, circuit, user.id);
+    });
+    res.json({ order: await circuitOrder(db, boardId), cursor: await latestCursor(db, boardId) });
+  });
+
+  router.put('/:boardId/circuits/:circuitId/cells/:column', async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    const circuitId = idParam(req, 'circuitId');
+    const column = req.params.column;
+    if (!isReadingKey(column)) {
+      const hint = isDetailKey(column) ? ` "${column}" is a circuit detail: change it with PATCH on the circuit.` : '';
+      throw new HttpError('bad_request', `There is no reading column "${column}".${hint}`);
+    }
+    const body = writeCellBodySchema.parse(req.body);
+    const user = currentUser(req);
+    const text = body.text.trim();
+    const reason = body.reason ? body.reason : null;
+    const result = await db.transaction().execute(async (trx) => {
+      requireOpen(await requireBoard(trx, boardId));
+      if (!(await findCircuitRow(trx, boardId, circuitId))) throw notFound(`Circuit ${circuitId} on board ${boardId}`);
+      const written = await writeCell(trx, {
+        boardId, circuitId, column, text, reason, baseVersion: body.version, userId: user.id, how: body.how ?? 'typed',
+      });
+      if (!written.ok) {
+        const names = await userNames(trx);
+        const current = written.current ? toCell(written.current, names) : null;
+        const who = current?.updatedBy?.name ?? 'Someone';
+        throw new HttpError(
+          'conflict',
+          `${who} changed this ${columnByKey[column].label} to "${current?.text ?? ''}" meanwhile; keep theirs or write yours again.`,
+          { current },
+        );
+      }
+      return written;
+    });
+    const names = await userNames(db);
+    res.json({
+      cell: toCell(result.cell, names),
+      findings: await boardFindings(boardId, circuitId),
+      cursor: result.cursor || (await latestCursor(db, boardId)),
+    });
+  });
+
+  router.get('/:boardId/circuits/:circuitId/cells/:column/history', async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    const circuitId = idParam(req, 'circuitId');
+    if (!(await findCircuitRow(db, boardId, circuitId))) throw notFound(`Circuit ${circuitId} on board ${boardId}`);
+    const names = await userNames(db);
+    const rows = await cellHistory(db, circuitId, req.params.column ?? '');
+    res.json({
+      history: rows.map((r) => ({
+        id: r.id,
+        oldText: r.old_text,
+        newText: r.new_text,
+        by: r.user_id ? { id: r.user_id, name: names.get(r.user_id) ?? 'former user' } : null,
+        at: r.at,
+        how: r.how,
+      })),
+    });
+  });
+
+  return router;
+}

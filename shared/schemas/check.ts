@@ -1,0 +1,39 @@
+import { z } from 'zod';
+import { circuitFieldsSchema } from './boards.ts';
+import { readingKeys } from './columns.ts';
+import { findingSchema } from './findings.ts';
+import { earthingArrangements } from './sites.ts';
+
+/** A cell as the checker needs it: the text as typed, and the reason given with a LIM. */
+export const checkCellSchema = z.object({
+  text: z.string().max(40),
+  reason: z.string().nullable().optional(),
+});
+
+export const checkCircuitSchema = circuitFieldsSchema.extend({
+  id: z.number().int(),
+  cells: z.partialRecord(z.enum(readingKeys), checkCellSchema),
+});
+
+/**
+ * The checker's input: a board's details, the site facts the limits depend on, and its circuits
+ * with their cells as typed. A board fetched from the API (board + site + circuits) fits it.
+ */
+export const checkInputSchema = z.object({
+  board: z.object({
+    phases: z.union([z.literal(1), z.literal(3)]),
+    zdbOhm: z.number().nullable(),
+    ipfKa: z.number().nullable(),
+    polarityConfirmed: z.boolean(),
+  }),
+  site: z.object({
+    earthing: z.enum(earthingArrangements),
+    nominalVoltageV: z.number().positive(),
+  }),
+  circuits: z.array(checkCircuitSchema).max(5000),
+});
+export type CheckInput = z.infer<typeof checkInputSchema>;
+export type CheckCircuit = z.infer<typeof checkCircuitSchema>;
+export type CheckCell = z.infer<typeof checkCellSchema>;
+
+export const checkResponseSchema = z.object({ findings: z.array(findingSchema) });

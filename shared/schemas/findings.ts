@@ -1,0 +1,23 @@
+import { z } from 'zod';
+
+export const severities = ['error', 'warning', 'note'] as const;
+export const severitySchema = z.enum(severities);
+export type Severity = z.infer<typeof severitySchema>;
+
+/** One finding of the checker. */
+export const findingSchema = z.object({
+  /** Stable code, e.g. `zs-over-max`. */
+  code: z.string(),
+  severity: severitySchema,
+  /** The circuit it concerns; null for a finding about the board as a whole. */
+  circuitId: z.number().int().nullable(),
+  /** Column keys (see columns.ts) the finding points at; may be empty. */
+  columns: z.array(z.string()),
+  /** One line in the tester's words. */
+  message: z.string(),
+  /** The limit compared against, as text with its unit (e.g. "≤ 1.37 Ω"); null when none. */
+  limit: z.string().nullable(),
+  /** Where the limit comes from: a standard's table, a formula, or "common practice". */
+  source: z.string().nullable(),
+});
+export type Finding = z.infer<typeof findingSchema>;
