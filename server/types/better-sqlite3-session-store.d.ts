@@ -7,10 +7,15 @@ declare module 'better-sqlite3-session-store' {
     expired?: { clear?: boolean; intervalMs?: number };
   }
 
-  type SqliteStoreClass = new (options: SqliteStoreOptions) => session.Store & {
+  class SqliteStore extends session.Store {
+    constructor(options: SqliteStoreOptions);
+    get(sid: string, callback: (err: unknown, session?: session.SessionData | null) => void): void;
+    set(sid: string, session: session.SessionData, callback?: (err?: unknown) => void): void;
+    destroy(sid: string, callback?: (err?: unknown) => void): void;
+    /** Starts the expiry sweep (a setInterval that is not unref'd). */
     startInterval(): void;
     clearExpiredSessions(): void;
-  };
+  }
 
-  export default function makeStore(s: typeof session): SqliteStoreClass;
+  export default function makeStore(s: typeof session): typeof SqliteStore;
 }

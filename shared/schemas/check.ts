@@ -37,3 +37,27 @@ export type CheckCircuit = z.infer<typeof checkCircuitSchema>;
 export type CheckCell = z.infer<typeof checkCellSchema>;
 
 export const checkResponseSchema = z.object({ findings: z.array(findingSchema) });
+
+/** Shapes a board as the API returns it (board, site, circuits with cells) as the checker's input. */
+export function boardToCheckInput(detail: {
+  board: { phases: 1 | 3; zdbOhm: number | null; ipfKa: number | null; polarityConfirmed: boolean };
+  site: { earthing: CheckInput['site']['earthing']; nominalVoltageV: number };
+  circuits: ReadonlyArray<z.infer<typeof circuitFieldsSchema> & { id: number; cells: Partial<Record<string, { text: string; reason: string | null } | undefined>> }>;
+}): CheckInput {
+  return {
+    board: {
+      phases: detail.board.phases,
+      zdbOhm: detail.board.zdbOhm,
+      ipfKa: detail.board.ipfKa,
+      polarityConfirmed: detail.board.polarityConfirmed,
+    },
+    site: { earthing: detail.site.earthing, nominalVoltageV: detail.site.nominalVoltageV },
+    circuits: detail.circuits.map(({ cells, ...fields }) => {
+      const checkCells: CheckCircuit['cells'] = {};
+      for (const [key, cell] of Object.entries(cells)) {
+        if (cell) checkCells[key as keyof CheckCircuit['cells']] = { text: cell.text, reason: cell.reason };
+      }
+      return { ...fields, cells: checkCells };
+    }),
+  };
+}
