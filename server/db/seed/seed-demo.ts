@@ -1,0 +1,154 @@
+import bcrypt from 'bcryptjs';
+import type { Insertable, Transaction } from 'kysely';
+import type { DB } from '../database.ts';
+import type { CellTable, Database } from '../types.ts';
+import { buildDemoScenario, demoPassword, type DemoBoard } from './demo-scenario.ts';
+
+/** bcrypt work factor for the demo accounts. */
+const bcryptCost = 10;
+
+/** True when any user exists: the server seeds the demo only into an empty database. */
+export async function databaseHasUsers(db: DB): Promise<boolean> {
+  const row = await db.selectFrom('users').select('id').limit(1).executeTakeFirst();
+  return row !== undefined;
+}
+
+/**
+ * Inserts the demo scenario (users, sites, jobs, boards, circuits, reading cells) in one
+ * transaction: either all of it lands or none. Expects an empty database (the demo emails are
+ * unique); call `databaseHasUsers` first.
+ *
+ * Seeded cells get no history rows: history records the changes people make after the starting
+ * state, and the seed *is* the starting state. Every cell is version 1, typed by the tester.
+ */
+export async function seedDemo(db: DB): Promise<void> {
+  const scenario = buildDemoScenario();
+  // Hash before the transaction opens: bcrypt is slow on purpose, and the write lock need not wait.
+  const hashes = await Promise.all(scenario.users.map(() => bcrypt.hash(demoPassword, bcryptCost)));
+
+  await db.transaction().execute(async (trx) => {
+    const userIds = new Map<string, number>();
+    for (const [index, user] of scenario.users.entries()) {
+      const { id } = await trx
+        .insertInto('users')
+        .values({ email: user.email, name: user.name, role: user.role, password_hash: hashes[index] ?? '' })
+        .returning('id')
+        .executeTakeFirstOrThrow();
+      userIds.set(user.email, id);
+    }
+    const typistId = userIds.get(scenario.typistEmail);
+    if (typistId === undefined) throw new Error(`The demo typist ${scenario.typistEmail} is not among the demo users`);
+
+    for (const site of scenario.sites) {
+      const { id: siteId } = await trx
+        .insertInto('sites')
+        .values({
+          client: site.client,
+          address: site.address,
+          description: site.description,
+          earthing: site.earthing,
+          nominal_voltage_v: site.nominalVoltageV,
+          ze_ohm: site.zeOhm,
+          pfc_ka: site.pfcKa,
+        })
+        .returning('id')
+        .executeTakeFirstOrThrow();
+
+      for (const job of site.jobs) {
+        const { id: jobId } = await trx
+          .insertInto('jobs')
+          .values({
+            site_id: siteId,
+            kind: job.kind,
+            reference: job.reference,
+            visit_date: job.visitDate,
+            limitations: job.limitations,
+          })
+          .returning('id')
+          .executeTakeFirstOrThrow();
+
+        for (const board of job.boards) await insertBoard(trx, jobId, board, typistId);
+      }
+    }
+  });
+}
+
+async function insertBoard(trx: Transaction<Database>, jobId: number, board: DemoBoard, typistId: number): Promise<void> {
+  const { id: boardId } = await trx
+    .insertInto('boards')
+    .values({
+      job_id: jobId,
+      reference: board.reference,
+      location: board.location,
+      supplied_from: board.suppliedFrom,
+      phases: board.phases,
+      zdb_ohm: board.zdbOhm,
+      ipf_ka: board.ipfKa,
+      polarity_confirmed: board.polarityConfirmed ? 1 : 0,
+      phase_sequence_confirmed: board.phaseSequenceConfirmed ? 1 : 0,
+      instruments: board.instruments,
+      state: 'open',
+      locked_by: null,
+      locked_at: null,
+      version: 1,
+    })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+
+  const idByNumber = new Map<string, number>();
+  for (const [index, circuit] of board.circuits.entries()) {
+    const { id: circuitId } = await trx
+      .insertInto('circuits')
+      .values({
+        board_id: boardId,
+        position: index + 1,
+        number: circuit.number,
+        phase: circuit.phase,
+        description: circuit.description,
+        kind: circuit.kind,
+        wiring_type: circuit.wiringType,
+        reference_method: circuit.referenceMethod,
+        points: circuit.points,
+        live_csa_mm2: circuit.liveCsaMm2,
+        cpc_csa_mm2: circuit.cpcCsaMm2,
+        max_disconnection_s: circuit.maxDisconnectionS,
+        device_standard: circuit.deviceStandard,
+        device_type: circuit.deviceType,
+        rating_a: circuit.ratingA,
+        breaking_ka: circuit.breakingKa,
+        rcd_type: circuit.rcdType,
+        rcd_rated_residual_ma: circuit.rcdRatedResidualMa,
+        afdd: circuit.afdd,
+        remarks: circuit.remarks,
+        // Spurs are linked once every circuit of the board has its id (below).
+        spur_ring_id: null,
+        spur_origin_point: circuit.spurOriginPoint,
+        spur_length_m: circuit.spurLengthM,
+        version: 1,
+      })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    idByNumber.set(circuit.number, circuitId);
+
+    const cells: Insertable<CellTable>[] = Object.entries(circuit.cells).map(([columnKey, cell]) => ({
+      circuit_id: circuitId,
+      column_key: columnKey,
+      text: cell.text,
+      reason: cell.reason,
+      version: 1,
+      updated_by: typistId,
+      updated_at: cell.updatedAt,
+    }));
+    if (cells.length > 0) await trx.insertInto('cells').values(cells).execute();
+  }
+
+  for (const circuit of board.circuits) {
+    if (circuit.spurRingNumber === null) continue;
+    const ringId = idByNumber.get(circuit.spurRingNumber);
+    const spurId = idByNumber.get(circuit.number);
+    if (ringId === undefined || spurId === undefined) {
+      throw new Error(`Spur ${circuit.number} on ${board.reference} names ring ${circuit.spurRingNumber}, which is not on the board`);
+    }
+    await trx.updateTable('circuits').set({ spur_ring_id: ringId }).where('id', '=', spurId).execute();
+  }
+}
