@@ -1,0 +1,828 @@
+/**
+ * The rules over a whole board: every reading against the standard and against the circuit's other
+ * readings. `checkBoard` is pure and deterministic; its output does not depend on the order of the
+ * circuits (findings are sorted by circuit id, then code, columns and message).
+ *
+ * The work is split in two so a board can be re-checked cheaply after one edit:
+ * 1. per circuit (`circuitFacts`): parse the cells and run every rule that needs only the circuit
+ *    and the board's own details; the result can be cached per circuit object;
+ * 2. across circuits (`crossCircuitFindings`): spurs against their rings, duplicate numbers, and the
+ *    patterns that only show on a whole board (readings that look calculated).
+ */
+
+import type { CheckCircuit, CheckInput } from '../schemas/check.ts';
+import { readingKeys, type ReadingKey } from '../schemas/columns.ts';
+import type { Finding, Severity } from '../schemas/findings.ts';
+import { cellGrammars, cellNumber, isRecorded, parseCell, plausibleRange, type ParsedCell } from './cell-grammar.ts';
+import { formatFixed } from './decimal.ts';
+import { normaliseBreakerType, normaliseDeviceStandard } from './devices.ts';
+import { megohmText, ohmText, readingText } from './format.ts';
+import { maxZs, rcdMaxZsTT, type MaxZsResult } from './max-zs.ts';
+import {
+  BREAKING_CAPACITY_SOURCE,
+  conductorResistance,
+  defaultDisconnectionTimeS,
+  IEC_60228_SOURCE,
+  insulationMinimum,
+  IR_INVESTIGATE_BELOW_MEGOHM,
+  IR_INVESTIGATE_SOURCE,
+  POLARITY_SOURCE,
+  r1PlusR2PerMetre,
+  rcdTimeLimit,
+  RING_R1_RN_SOURCE,
+  RING_R1_RN_TOLERANCE_OHM,
+  ringLengthGuidance,
+  TABLE_41_1_SOURCE,
+  TABLE_64_SOURCE,
+  unfusedSpurGuidance,
+  ZS_RULE_OF_THUMB_FACTOR,
+  ZS_RULE_OF_THUMB_SOURCE,
+} from './reference-data.ts';
+import { correctRingReading } from './ring.ts';
+
+// ---------------------------------------------------------------------------------------------
+// Codes
+// ---------------------------------------------------------------------------------------------
+
+/** Every finding code the checker emits, with its severity. */
+export const findingCodes = {
+  'cell-invalid': 'error',
+  'lim-without-reason': 'error',
+  'na-where-required': 'error',
+  'cells-missing': 'error',
+  'zs-over-max': 'error',
+  'zs-over-80-percent': 'warning',
+  'zs-limit-unknown': 'warning',
+  'zs-above-expected': 'warning',
+  'zs-below-expected': 'note',
+  'ring-r1-rn-mismatch': 'warning',
+  'ring-r2-ratio': 'warning',
+  'ring-r1r2-inconsistent': 'warning',
+  'ring-length-beyond-guidance': 'warning',
+  'ring-spurs-exceed-points': 'note',
+  'ring-readings-look-calculated': 'note',
+  'spur-ring-missing': 'error',
+  'spur-ring-unknown': 'error',
+  'spur-below-ring': 'warning',
+  'spur-r1r2-unexpected': 'warning',
+  'ir-below-minimum': 'error',
+  'ir-below-2-megohm': 'note',
+  'polarity-wrong': 'error',
+  'board-polarity-not-confirmed': 'warning',
+  'rcd-time-over-limit': 'error',
+  'rcd-time-below-delay': 'warning',
+  'rcd-time-missing': 'error',
+  'rcd-type-missing': 'warning',
+  'rcd-button-fail': 'error',
+  'afdd-button-fail': 'error',
+  'ipf-over-breaking-capacity': 'error',
+  'circuit-untested': 'warning',
+  'circuit-number-duplicate': 'warning',
+  'readings-look-calculated': 'note',
+} as const satisfies Record<string, Severity>;
+
+export type FindingCode = keyof typeof findingCodes;
+
+// ---------------------------------------------------------------------------------------------
+// Tolerances (common practice; the checker's own choices are said in the sources)
+// ---------------------------------------------------------------------------------------------
+
+const EPS = 1e-9;
+/** Zs against Zdb + R1+R2: allowed difference, the larger of 0.10 Ω and 15 %. */
+const ZS_SUM_ALLOWANCE_OHM = 0.1;
+const ZS_SUM_ALLOWANCE_FRACTION = 0.15;
+const ZS_SUM_SOURCE = 'Zs ≈ Zdb + (R1+R2), allowance ± the larger of 0.10 Ω and 15 % — common practice';
+/** r2 against r1 × the conductors' resistance ratio: ±10 %, plus 0.02 Ω for the readings' resolution. */
+const RING_RATIO_FRACTION = 0.1;
+const RING_RATIO_RESOLUTION_OHM = 0.02;
+/** The ring's R1+R2 against (r1+r2)/4, and a spur against its ring. */
+const RING_R1R2_ALLOWANCE_OHM = 0.05;
+const SPUR_ALLOWANCE_OHM = 0.05;
+const SPUR_ALLOWANCE_FRACTION = 0.1;
+const REQUIRED_SOURCE = 'required on the schedule of test results for this kind of circuit — common practice';
+const LIM_SOURCE = 'a limitation (LIM) is recorded with its reason — common practice';
+
+// ---------------------------------------------------------------------------------------------
+// Board context and per-circuit facts
+// ---------------------------------------------------------------------------------------------
+
+interface BoardContext {
+  zdb: number | null;
+  ipf: number | null;
+  earthing: CheckInput['site']['earthing'];
+  u0: number;
+  /** Identifies the context: a cached circuit result is valid only under the same key. */
+  key: string;
+}
+
+/** What the cross-circuit rules need to know of a circuit, and its own findings. */
+interface CircuitFacts {
+  circuit: CheckCircuit;
+  parsed: Readonly<Record<ReadingKey, ParsedCell>>;
+  /** The circuit's own findings, sorted. */
+  local: readonly Finding[];
+  /** Plain numbers (not ">N") of the readings the cross rules compare, else null. */
+  ringR1: number | null;
+  ringRn: number | null;
+  ringR2: number | null;
+  r1PlusR2: number | null;
+  zs: number | null;
+  /** Zs − Zdb equals R1+R2 to the hundredth. */
+  zsIsZdbPlusR1R2: boolean;
+  /** Whether Zs, R1+R2 and Zdb were all there to compare. */
+  zsComparable: boolean;
+  /** Ring readings in exact textbook proportion; null when not a ring or a reading is missing. */
+  ringTextbook: boolean | null;
+}
+
+function contextOf(input: CheckInput): BoardContext {
+  const zdb = input.board.zdbOhm;
+  const ipf = input.board.ipfKa;
+  const { earthing, nominalVoltageV } = input.site;
+  return { zdb, ipf, earthing, u0: nominalVoltageV, key: `${zdb}|${ipf}|${earthing}|${nominalVoltageV}` };
+}
+
+function finding(
+  code: FindingCode,
+  circuitId: number | null,
+  columns: string[],
+  message: string,
+  limit: string | null,
+  source: string | null,
+): Finding {
+  return { code, severity: findingCodes[code], circuitId, columns, message, limit, source };
+}
+
+const EMPTY_CELL: ParsedCell = { kind: 'empty' };
+
+function plainNumber(cell: ParsedCell): number | null {
+  return cell.kind === 'number' ? cell.value : null;
+}
+
+function labelOf(key: ReadingKey): string {
+  return cellGrammars[key].label;
+}
+
+function show(parsed: Readonly<Record<ReadingKey, ParsedCell>>, key: ReadingKey): string {
+  return readingText(parsed[key], cellGrammars[key].unit);
+}
+
+function hundredths(value: number): number {
+  return Math.round(value * 100);
+}
+
+/**
+ * The reading columns a circuit of this kind needs for the schedule to be complete. For circuits
+ * other than rings, R1+R2 may be given as R2 (measured with a long lead) instead.
+ */
+export function requiredColumns(circuit: Pick<CheckCircuit, 'kind' | 'rcdType' | 'afdd'>): ReadingKey[] {
+  const columns: ReadingKey[] =
+    circuit.kind === 'ring'
+      ? ['ringR1', 'ringRn', 'ringR2', 'r1PlusR2', 'irTestVoltage', 'irLiveLive', 'irLiveEarth', 'polarity', 'zs']
+      : ['r1PlusR2', 'irTestVoltage', 'irLiveLive', 'irLiveEarth', 'polarity', 'zs'];
+  if (circuit.rcdType) columns.push('rcdTimeMs', 'rcdButton');
+  if (circuit.afdd === 'yes') columns.push('afddButton');
+  return columns;
+}
+
+/** The Zs limit of a circuit, with how it was chosen. */
+interface ZsLimit {
+  result: MaxZsResult;
+  timeS: number | null;
+  timeAssumed: boolean;
+  /** True when the limit is the TT RCD one (50 V / IΔn), to which the 0.8 rule does not apply. */
+  rcdBased: boolean;
+}
+
+function zsLimitOf(c: CheckCircuit, ctx: BoardContext): ZsLimit {
+  if (ctx.earthing === 'TT' && c.rcdType && c.rcdRatedResidualMa !== null) {
+    return { result: rcdMaxZsTT(c.rcdRatedResidualMa), timeS: null, timeAssumed: false, rcdBased: true };
+  }
+  const timeAssumed = c.maxDisconnectionS === null;
+  const timeS = c.maxDisconnectionS ?? defaultDisconnectionTimeS({ earthing: ctx.earthing, kind: c.kind, ratingA: c.ratingA }).seconds;
+  if (c.deviceStandard.trim() === '') {
+    return { result: { ok: false, reason: 'no protective device is recorded' }, timeS, timeAssumed, rcdBased: false };
+  }
+  if (c.ratingA === null) {
+    return { result: { ok: false, reason: 'the device rating In is not recorded' }, timeS, timeAssumed, rcdBased: false };
+  }
+  const result = maxZs({ standard: c.deviceStandard, type: c.deviceType, ratingA: c.ratingA, disconnectionTimeS: timeS, u0: ctx.u0 });
+  return { result, timeS, timeAssumed, rcdBased: false };
+}
+
+/** Runs every rule that needs only one circuit and the board's details. */
+function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
+  const out: Finding[] = [];
+  const id = c.id;
+  const parsed = {} as Record<ReadingKey, ParsedCell>;
+  const cells = c.cells;
+  let naOrLim = 0;
+  let taken = 0;
+  const naOrLimKeys: ReadingKey[] = [];
+
+  // Cell grammar and LIM reasons.
+  for (const key of readingKeys) {
+    const cell = cells[key];
+    const p = cell === undefined ? EMPTY_CELL : parseCell(key, cell.text);
+    parsed[key] = p;
+    switch (p.kind) {
+      case 'invalid': {
+        const limit = p.problem === 'range' || p.problem === 'test-voltage' ? plausibleRange(key) : null;
+        const source = p.problem === 'test-voltage' ? TABLE_64_SOURCE : p.problem === 'range' ? 'plausible range of the column — common practice' : null;
+        out.push(finding('cell-invalid', id, [key], p.message, limit, source));
+        break;
+      }
+      case 'lim':
+        naOrLim++;
+        naOrLimKeys.push(key);
+        if (!cell?.reason || cell.reason.trim() === '') {
+          out.push(finding('lim-without-reason', id, [key], `LIM in ${labelOf(key)} without a reason: record why the test could not be done.`, null, LIM_SOURCE));
+        }
+        break;
+      case 'na':
+        naOrLim++;
+        naOrLimKeys.push(key);
+        break;
+      case 'empty':
+        break;
+      default:
+        taken++;
+    }
+  }
+
+  // Completeness and N/A where a reading is required.
+  const missing: ReadingKey[] = [];
+  const kindText = c.kind === 'ring' ? 'a ring final' : c.kind === 'distribution' ? 'a distribution circuit' : `a ${c.kind}`;
+  for (const key of requiredColumns(c)) {
+    if (key === 'rcdTimeMs') continue; // the RCD rule says it in its own words
+    const p = parsed[key];
+    if (key === 'r1PlusR2' && c.kind !== 'ring') {
+      const alternative = parsed.r2;
+      if (isRecorded(p) || isRecorded(alternative) || p.kind === 'invalid' || alternative.kind === 'invalid') continue;
+      const na = (['r1PlusR2', 'r2'] as const).filter((k) => parsed[k].kind === 'na');
+      if (na.length > 0) {
+        out.push(finding('na-where-required', id, [...na], `R1+R2 (or R2) is N/A, but ${kindText} needs its continuity measured (or LIM with a reason).`, null, REQUIRED_SOURCE));
+      } else {
+        missing.push(key);
+      }
+      continue;
+    }
+    if (p.kind === 'empty') missing.push(key);
+    else if (p.kind === 'na') {
+      out.push(finding('na-where-required', id, [key], `${labelOf(key)} is N/A, but ${kindText} needs it (or LIM with a reason).`, null, REQUIRED_SOURCE));
+    }
+  }
+  if (missing.length > 0) {
+    out.push(finding('cells-missing', id, missing, `Not recorded yet: ${missing.map(labelOf).join(', ')}.`, null, REQUIRED_SOURCE));
+  }
+  if (naOrLim >= 3 && taken === 0) {
+    out.push(
+      finding('circuit-untested', id, naOrLimKeys, 'Every reading on this circuit is N/A or LIM: test it, or say why in the remarks.', null, 'a circuit on the schedule is tested, or the reason it was not is given — common practice'),
+    );
+  }
+
+  const zsCell = parsed.zs;
+  const zs = plainNumber(zsCell);
+  const r1PlusR2 = plainNumber(parsed.r1PlusR2);
+
+  zsRules(c, ctx, parsed, out);
+
+  // Zs against Zdb + R1+R2.
+  let zsIsZdbPlusR1R2 = false;
+  const zsComparable = zs !== null && r1PlusR2 !== null && ctx.zdb !== null;
+  if (zsComparable) {
+    const zdb = ctx.zdb!;
+    const expected = zdb + r1PlusR2!;
+    const allowance = Math.max(ZS_SUM_ALLOWANCE_OHM, ZS_SUM_ALLOWANCE_FRACTION * expected);
+    const difference = zs! - expected;
+    const sumText = `Zdb + R1+R2 = ${zdb} + ${r1PlusR2} = ${ohmText(expected)} Ω`;
+    const limit = `≈ ${ohmText(expected)} Ω (± ${formatFixed(allowance, 2)} Ω)`;
+    if (difference > allowance + EPS) {
+      out.push(finding('zs-above-expected', id, ['zs', 'r1PlusR2'], `Zs ${zs} Ω is well above ${sumText}: a poor joint or connection in the loop?`, limit, ZS_SUM_SOURCE));
+    } else if (-difference > allowance + EPS) {
+      out.push(
+        finding('zs-below-expected', id, ['zs', 'r1PlusR2'], `Zs ${zs} Ω is well below ${sumText}: parallel earth paths (bonding, pipework) are likely; the cpc itself is proven by R1+R2.`, limit, ZS_SUM_SOURCE),
+      );
+    }
+    zsIsZdbPlusR1R2 = hundredths(zs!) - hundredths(zdb) === hundredths(r1PlusR2!);
+  }
+
+  insulationRules(id, parsed, out);
+
+  if (parsed.polarity.kind === 'fail') {
+    out.push(finding('polarity-wrong', id, ['polarity'], 'Polarity is marked ✗ (not correct): put it right, or raise an observation.', '✓ (correct)', POLARITY_SOURCE));
+  }
+
+  rcdRules(c, parsed, out);
+
+  if (ctx.ipf !== null && c.breakingKa !== null && ctx.ipf > c.breakingKa + EPS) {
+    out.push(
+      finding(
+        'ipf-over-breaking-capacity',
+        id,
+        ['breakingKa'],
+        `Ipf at the board ${ctx.ipf} kA is above the device's breaking capacity ${c.breakingKa} kA (unless an upstream device backs it up).`,
+        `≤ ${c.breakingKa} kA`,
+        BREAKING_CAPACITY_SOURCE,
+      ),
+    );
+  }
+
+  const ringR1 = plainNumber(parsed.ringR1);
+  const ringRn = plainNumber(parsed.ringRn);
+  const ringR2 = plainNumber(parsed.ringR2);
+  let ringTextbook: boolean | null = null;
+  if (c.kind === 'ring') ringTextbook = ringRules(c, ringR1, ringRn, ringR2, r1PlusR2, out);
+
+  out.sort(compareFindings);
+  return { circuit: c, parsed, local: out, ringR1, ringRn, ringR2, r1PlusR2, zs, zsIsZdbPlusR1R2, zsComparable, ringTextbook };
+}
+
+function zsRules(c: CheckCircuit, ctx: BoardContext, parsed: Readonly<Record<ReadingKey, ParsedCell>>, out: Finding[]): void {
+  const cell = parsed.zs;
+  const value = cellNumber(cell);
+  if (value === null) return;
+  const { result, timeS, timeAssumed, rcdBased } = zsLimitOf(c, ctx);
+  const shown = show(parsed, 'zs');
+  if (!result.ok) {
+    out.push(finding('zs-limit-unknown', c.id, ['zs', 'deviceStandard'], `Zs ${shown} not checked: ${lowerFirst(result.reason)}`, null, null));
+    return;
+  }
+  const limit = result.limitOhm;
+  const timeText = timeS === null ? '' : ` at ${timeS} s`;
+  const assumedNote = timeAssumed ? ` (${timeS} s assumed from ${TABLE_41_1_SOURCE})` : '';
+  const source = timeAssumed ? `${result.source}; ${timeS} s from ${TABLE_41_1_SOURCE}` : result.source;
+  // ">N" is more than N: over the limit for certain only when N already reaches it.
+  const over = cell.kind === 'number' ? value > limit + EPS : value >= limit - EPS;
+  if (over) {
+    out.push(finding('zs-over-max', c.id, ['zs'], `Zs ${shown} is over the maximum ${ohmText(limit)} Ω for a ${result.device}${timeText}${assumedNote}.`, `≤ ${ohmText(limit)} Ω`, source));
+    return;
+  }
+  if (rcdBased) return;
+  const ruleLimit = limit * ZS_RULE_OF_THUMB_FACTOR;
+  const overRule = cell.kind === 'number' ? value > ruleLimit + EPS : value >= ruleLimit - EPS;
+  if (overRule) {
+    out.push(
+      finding(
+        'zs-over-80-percent',
+        c.id,
+        ['zs'],
+        `Zs ${shown} is above 0.8 × the maximum for a ${result.device}${timeText}: it may exceed ${ohmText(limit)} Ω when the conductors are hot.`,
+        `≤ ${formatFixed(ruleLimit, 2)} Ω (0.8 × ${ohmText(limit)} Ω)`,
+        `${ZS_RULE_OF_THUMB_SOURCE}; maximum from ${source}`,
+      ),
+    );
+  }
+}
+
+function lowerFirst(text: string): string {
+  return text.length > 0 && text[0] !== '"' ? text[0]!.toLowerCase() + text.slice(1) : text;
+}
+
+function insulationRules(id: number, parsed: Readonly<Record<ReadingKey, ParsedCell>>, out: Finding[]): void {
+  const voltageCell = parsed.irTestVoltage;
+  const recordedVoltage = voltageCell.kind === 'number' ? voltageCell.value : null;
+  const voltage = recordedVoltage ?? 500;
+  const minimum = insulationMinimum(voltage);
+  if (!minimum.ok) return;
+  const assumed = recordedVoltage === null ? ' (test voltage not recorded: 500 V assumed)' : '';
+  for (const key of ['irLiveLive', 'irLiveEarth'] as const) {
+    const cell = parsed[key];
+    if (cell.kind !== 'number') continue; // ">N" is at least N: the meter's range is above every minimum
+    const value = cell.value;
+    if (value < minimum.minMegohm - EPS) {
+      out.push(
+        finding(
+          'ir-below-minimum',
+          id,
+          [key, 'irTestVoltage'],
+          `${labelOf(key)} ${value} MΩ is below the minimum ${megohmText(minimum.minMegohm)} MΩ for a ${voltage} V test${assumed}.`,
+          `≥ ${megohmText(minimum.minMegohm)} MΩ at ${voltage} V`,
+          `${minimum.source} (${voltage} V DC test: ${minimum.circuits})`,
+        ),
+      );
+    } else if (value < IR_INVESTIGATE_BELOW_MEGOHM - EPS) {
+      out.push(
+        finding('ir-below-2-megohm', id, [key], `${labelOf(key)} ${value} MΩ passes but is low: worth investigating (a damp accessory, a connected load?).`, `≥ ${IR_INVESTIGATE_BELOW_MEGOHM} MΩ`, IR_INVESTIGATE_SOURCE),
+      );
+    }
+  }
+}
+
+function rcdRules(c: CheckCircuit, parsed: Readonly<Record<ReadingKey, ParsedCell>>, out: Finding[]): void {
+  const id = c.id;
+  const time = parsed.rcdTimeMs;
+  if (c.rcdType) {
+    const limits = rcdTimeLimit(c.rcdType);
+    const limitText = limits.minMs === null ? `≤ ${limits.maxMs} ms` : `${limits.minMs}–${limits.maxMs} ms`;
+    const rcdText = `type ${c.rcdType}${c.rcdRatedResidualMa !== null ? `, ${c.rcdRatedResidualMa} mA` : ''}`;
+    if (time.kind === 'empty' || time.kind === 'na') {
+      out.push(
+        finding(
+          'rcd-time-missing',
+          id,
+          ['rcdTimeMs'],
+          `An RCD (${rcdText}) is fitted but its operating time is ${time.kind === 'na' ? 'N/A' : 'not recorded'}: test it at IΔn (or LIM with a reason).`,
+          limitText,
+          limits.source,
+        ),
+      );
+    }
+    const value = cellNumber(time);
+    if (value !== null) {
+      const shown = show(parsed, 'rcdTimeMs');
+      const over = time.kind === 'number' ? value > limits.maxMs + EPS : value >= limits.maxMs - EPS;
+      if (over) {
+        out.push(finding('rcd-time-over-limit', id, ['rcdTimeMs'], `RCD time ${shown} is over ${limits.maxMs} ms for a ${limits.label} (${rcdText}).`, limitText, limits.source));
+      } else if (limits.minMs !== null && time.kind === 'number' && value < limits.minMs - EPS) {
+        out.push(
+          finding(
+            'rcd-time-below-delay',
+            id,
+            ['rcdTimeMs'],
+            `RCD time ${shown} is faster than a ${limits.label} operates (${limitText}): check the device really is the S type recorded.`,
+            limitText,
+            limits.source,
+          ),
+        );
+      }
+    }
+    if (parsed.rcdButton.kind === 'fail') {
+      out.push(finding('rcd-button-fail', id, ['rcdButton'], 'The RCD test button did not operate the RCD (✗).', '✓ (operates)', limits.source));
+    }
+  } else if (cellNumber(time) !== null) {
+    out.push(finding('rcd-type-missing', id, ['rcdTimeMs', 'rcdType'], 'An RCD time is recorded but no RCD type: record the type and IΔn so the time can be checked.', null, null));
+  }
+  if (parsed.afddButton.kind === 'fail') {
+    out.push(finding('afdd-button-fail', id, ['afddButton'], 'The AFDD test button did not operate the device (✗).', '✓ (operates)', 'BS 7671:2018+A2 model forms: AFDD test button [from memory]'));
+  }
+}
+
+/** The ring rules; returns whether the ring's readings are in exact textbook proportion. */
+function ringRules(c: CheckCircuit, r1: number | null, rn: number | null, r2: number | null, r1PlusR2: number | null, out: Finding[]): boolean | null {
+  const id = c.id;
+  if (r1 !== null && rn !== null && Math.abs(r1 - rn) > RING_R1_RN_TOLERANCE_OHM + EPS) {
+    out.push(
+      finding(
+        'ring-r1-rn-mismatch',
+        id,
+        ['ringR1', 'ringRn'],
+        `r1 ${r1} Ω and rn ${rn} Ω differ by ${formatFixed(Math.abs(r1 - rn), 2)} Ω: a loose or broken conductor, or the wrong cable ends.`,
+        `≤ ${RING_R1_RN_TOLERANCE_OHM} Ω apart`,
+        RING_R1_RN_SOURCE,
+      ),
+    );
+  }
+
+  const live = c.liveCsaMm2 !== null ? conductorResistance(c.liveCsaMm2) : null;
+  const cpc = c.cpcCsaMm2 !== null ? conductorResistance(c.cpcCsaMm2) : null;
+  const liveMilliohm = live !== null && live.ok ? live.milliohmPerMetre : null;
+  const cpcMilliohm = cpc !== null && cpc.ok ? cpc.milliohmPerMetre : null;
+  const resistanceRatio = liveMilliohm !== null && cpcMilliohm !== null ? cpcMilliohm / liveMilliohm : null;
+
+  if (r1 !== null && r2 !== null && r1 > 0 && resistanceRatio !== null) {
+    const expectedR2 = resistanceRatio * r1;
+    const allowance = RING_RATIO_FRACTION * expectedR2 + RING_RATIO_RESOLUTION_OHM;
+    if (Math.abs(r2 - expectedR2) > allowance + EPS) {
+      const sizes = `${c.liveCsaMm2}/${c.cpcCsaMm2}`;
+      out.push(
+        finding(
+          'ring-r2-ratio',
+          id,
+          ['ringR1', 'ringR2'],
+          `r2/r1 = ${formatFixed(r2 / r1, 2)} (r1 ${r1} Ω, r2 ${r2} Ω), but ${sizes} cable gives ${formatFixed(resistanceRatio, 2)}: wrong pairing of ends, or a poor joint?`,
+          `r2 ≈ ${formatFixed(resistanceRatio, 2)} × r1 = ${formatFixed(expectedR2, 2)} Ω (± 10 %)`,
+          `${IEC_60228_SOURCE}: ${cpcMilliohm} / ${liveMilliohm} = ${formatFixed(resistanceRatio, 2)}; ± 10 % — common practice`,
+        ),
+      );
+    }
+  }
+
+  if (r1 !== null && r2 !== null && r1PlusR2 !== null && r1 + r2 > 0) {
+    const quarter = (r1 + r2) / 4;
+    const ends = (r1 * r2) / (r1 + r2);
+    const limit = `≈ ${formatFixed(quarter, 2)} Ω ((r1+r2)/4), ± ${RING_R1R2_ALLOWANCE_OHM} Ω`;
+    const source = 'formula: cross-connected ring, (r1+r2)/4 at mid-ring, r1·r2/(r1+r2) at the ends; ± 0.05 Ω — common practice';
+    if (r1PlusR2 > quarter + RING_R1R2_ALLOWANCE_OHM + EPS) {
+      out.push(
+        finding('ring-r1r2-inconsistent', id, ['r1PlusR2', 'ringR1', 'ringR2'], `R1+R2 ${r1PlusR2} Ω is above (r1+r2)/4 = ${formatFixed(quarter, 2)} Ω: a spur, a loose termination, or a reading at the wrong point.`, limit, source),
+      );
+    } else if (r1PlusR2 < ends - RING_R1R2_ALLOWANCE_OHM - EPS) {
+      out.push(
+        finding(
+          'ring-r1r2-inconsistent',
+          id,
+          ['r1PlusR2', 'ringR1', 'ringR2'],
+          `R1+R2 ${r1PlusR2} Ω is below what any socket of this ring can read (${formatFixed(ends, 2)}–${formatFixed(quarter, 2)} Ω): an interconnection, or the ends linked wrongly.`,
+          limit,
+          source,
+        ),
+      );
+    }
+  }
+
+  if (r1 !== null && c.liveCsaMm2 === ringLengthGuidance.liveCsaMm2 && c.cpcCsaMm2 === ringLengthGuidance.cpcCsaMm2 && isGuidanceDevice(c)) {
+    const lineResistance = conductorResistance(ringLengthGuidance.liveCsaMm2);
+    if (lineResistance.ok) {
+      const lengthM = r1 / (lineResistance.milliohmPerMetre / 1000);
+      if (lengthM > ringLengthGuidance.maxLengthM + EPS) {
+        out.push(
+          finding(
+            'ring-length-beyond-guidance',
+            id,
+            ['ringR1'],
+            `r1 ${r1} Ω means about ${Math.round(lengthM)} m of 2.5 mm² cable, beyond the ~${ringLengthGuidance.maxLengthM} m guidance for 2.5/1.5 on a B32: check Zs and voltage drop, or the ends measured.`,
+            `≤ ${ringLengthGuidance.maxLengthM} m (r1 ≤ ${formatFixed((ringLengthGuidance.maxLengthM * lineResistance.milliohmPerMetre) / 1000, 2)} Ω)`,
+            `${ringLengthGuidance.source}; length = r1 ÷ ${lineResistance.milliohmPerMetre} mΩ/m (${IEC_60228_SOURCE})`,
+          ),
+        );
+      }
+    }
+  }
+
+  if (r1 === null || rn === null || r2 === null || r1PlusR2 === null) return null;
+  // Textbook proportion: rn = r1, r2 = r1 × (area ratio or resistance ratio), R1+R2 = (r1+r2)/4, each
+  // to the hundredth the readings are written in.
+  const areaRatio = c.liveCsaMm2 !== null && c.cpcCsaMm2 !== null ? c.liveCsaMm2 / c.cpcCsaMm2 : 2.5 / 1.5;
+  const ratio = resistanceRatio ?? 12.1 / 7.41;
+  const r2Textbook = Math.abs(r2 - r1 * areaRatio) <= 0.005 + EPS || Math.abs(r2 - r1 * ratio) <= 0.005 + EPS;
+  return hundredths(rn) === hundredths(r1) && r2Textbook && Math.abs(r1PlusR2 - (r1 + r2) / 4) <= 0.005 + EPS;
+}
+
+function isGuidanceDevice(c: CheckCircuit): boolean {
+  if (c.ratingA !== ringLengthGuidance.ratingA) return false;
+  const standard = normaliseDeviceStandard(c.deviceStandard);
+  if (!standard.ok || (standard.family !== 'bs-en-60898' && standard.family !== 'bs-en-61009')) return false;
+  return normaliseBreakerType(c.deviceType) === ringLengthGuidance.deviceType;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Across circuits
+// ---------------------------------------------------------------------------------------------
+
+/**
+ * Where on its ring a spur starts, as a fraction: "0.4", "40%", "1/2", or "socket 4" / "4" with the
+ * ring's number of points. Null when it cannot be read.
+ */
+export function spurOriginFraction(origin: string | null, ringPoints: number | null): number | null {
+  if (origin === null) return null;
+  const text = origin.trim().toLowerCase();
+  const percent = /^(\d+(?:\.\d+)?)\s*%$/.exec(text);
+  if (percent) return fractionOrNull(Number(percent[1]) / 100);
+  const ratio = /^(\d+)\s*\/\s*(\d+)$/.exec(text);
+  if (ratio) return fractionOrNull(Number(ratio[1]) / Number(ratio[2]));
+  if (/^0?\.\d+$/.test(text)) return fractionOrNull(Number(text));
+  const socket = /^(?:socket|skt|point|pt|no\.?|#)?\s*(\d+)$/.exec(text);
+  if (socket && ringPoints !== null && ringPoints > 0) {
+    const k = Number(socket[1]);
+    return k >= 1 && k <= ringPoints ? k / (ringPoints + 1) : null;
+  }
+  return null;
+}
+
+function fractionOrNull(x: number): number | null {
+  return Number.isFinite(x) && x >= 0 && x <= 1 ? x : null;
+}
+
+function circuitName(c: CheckCircuit): string {
+  return `circuit ${c.number}`;
+}
+
+/** Rules that compare circuits with each other, and the board's own details. */
+function crossCircuitFindings(input: CheckInput, facts: readonly CircuitFacts[]): Finding[] {
+  const out: Finding[] = [];
+  if (!input.board.polarityConfirmed && facts.length > 0) {
+    out.push(finding('board-polarity-not-confirmed', null, [], 'Polarity at the board is not confirmed.', '✓ (confirmed)', POLARITY_SOURCE));
+  }
+
+  // Duplicate circuit numbers (per phase on three-phase boards).
+  const byNumber = new Map<string, CircuitFacts[]>();
+  const byId = new Map<number, CircuitFacts | 'ambiguous'>();
+  for (const f of facts) {
+    const key = `${f.circuit.number.trim().toUpperCase()}|${f.circuit.phase ?? ''}`;
+    const list = byNumber.get(key);
+    if (list) list.push(f);
+    else byNumber.set(key, [f]);
+    byId.set(f.circuit.id, byId.has(f.circuit.id) ? 'ambiguous' : f);
+  }
+  for (const list of byNumber.values()) {
+    if (list.length < 2) continue;
+    for (const f of list) {
+      out.push(
+        finding('circuit-number-duplicate', f.circuit.id, [], `Circuit number ${f.circuit.number.trim()}${f.circuit.phase ? ` (${f.circuit.phase})` : ''} is used by ${list.length} circuits on this board.`, null, null),
+      );
+    }
+  }
+
+  // Spurs against their rings.
+  const spursPerRing = new Map<number, number>();
+  for (const f of facts) {
+    const spur = f.circuit;
+    if (spur.kind !== 'spur') continue;
+    if (spur.spurRingId === null) {
+      out.push(finding('spur-ring-missing', spur.id, [], 'A spur must name the ring final it hangs from (link it to its ring).', null, 'a spur is checked against its ring — common practice'));
+      continue;
+    }
+    const target = byId.get(spur.spurRingId);
+    if (target === undefined || target === 'ambiguous' || target.circuit.kind !== 'ring') {
+      const why =
+        target === undefined
+          ? 'which is not on this board'
+          : target === 'ambiguous'
+            ? 'an id used by more than one circuit'
+            : `${circuitName(target.circuit)}, a ${target.circuit.kind === 'distribution' ? 'distribution circuit' : target.circuit.kind}, not a ring final`;
+      out.push(finding('spur-ring-unknown', spur.id, [], `This spur hangs from ${target === undefined || target === 'ambiguous' ? `circuit id ${spur.spurRingId}, ` : ''}${why}.`, null, null));
+      continue;
+    }
+    const ring = target;
+    spursPerRing.set(ring.circuit.id, (spursPerRing.get(ring.circuit.id) ?? 0) + 1);
+    spurRules(f, ring, out);
+  }
+  for (const [ringId, count] of spursPerRing) {
+    const ring = byId.get(ringId) as CircuitFacts;
+    const points = ring.circuit.points;
+    if (points !== null && count > points) {
+      out.push(
+        finding('ring-spurs-exceed-points', ringId, ['points'], `${count} spurs hang from this ring, more than its ${points} points: check which are fused.`, `≤ ${points} spurs (points on the ring)`, unfusedSpurGuidance.source),
+      );
+    }
+  }
+
+  // Readings that look calculated rather than measured.
+  let comparable = 0;
+  const calculated: CircuitFacts[] = [];
+  for (const f of facts) {
+    if (!f.zsComparable) continue;
+    comparable++;
+    if (f.zsIsZdbPlusR1R2) calculated.push(f);
+  }
+  // Three or more circuits, and at least a third of those that can be compared: an exact match now
+  // and then happens by chance on a big board.
+  if (calculated.length >= 3 && calculated.length * 3 >= comparable) {
+    for (const f of calculated) {
+      out.push(
+        finding(
+          'readings-look-calculated',
+          f.circuit.id,
+          ['zs', 'r1PlusR2'],
+          `Zs equals Zdb + R1+R2 exactly here and on ${calculated.length - 1} other circuits: please confirm these were measured.`,
+          null,
+          'a measured Zs is usually a little off Zdb + R1+R2 — common practice',
+        ),
+      );
+    }
+  }
+  const rings = facts.filter((f) => f.ringTextbook !== null);
+  if (rings.length >= 2 && rings.every((f) => f.ringTextbook === true)) {
+    for (const f of rings) {
+      out.push(
+        finding(
+          'ring-readings-look-calculated',
+          f.circuit.id,
+          ['ringR1', 'ringRn', 'ringR2', 'r1PlusR2'],
+          `r1, rn, r2 and R1+R2 are in exact textbook proportion on all ${rings.length} rings: please confirm these were measured.`,
+          null,
+          'measured rings rarely match the conductor ratio and (r1+r2)/4 exactly — common practice',
+        ),
+      );
+    }
+  }
+  return out;
+}
+
+function spurRules(spurFacts: CircuitFacts, ring: CircuitFacts, out: Finding[]): void {
+  const spur = spurFacts.circuit;
+  const measured = spurFacts.r1PlusR2;
+  if (measured === null) return;
+  const ringRecorded = ring.r1PlusR2;
+  const ringName = circuitName(ring.circuit);
+  if (ringRecorded !== null && measured < ringRecorded - SPUR_ALLOWANCE_OHM - EPS) {
+    out.push(
+      finding(
+        'spur-below-ring',
+        spur.id,
+        ['r1PlusR2'],
+        `Spur R1+R2 ${measured} Ω is below its ring's ${ringRecorded} Ω (${ringName}): a spur adds to the ring's value, so one of them is wrong.`,
+        `≥ ${formatFixed(ringRecorded - SPUR_ALLOWANCE_OHM, 2)} Ω (ring ${ringRecorded} Ω less ${SPUR_ALLOWANCE_OHM} Ω)`,
+        'spur in series with the ring: R1+R2 = ring value at its origin + spur cable — common practice',
+      ),
+    );
+    return;
+  }
+  if (spur.spurLengthM === null || spur.liveCsaMm2 === null || spur.cpcCsaMm2 === null) return;
+  const perMetre = r1PlusR2PerMetre(spur.liveCsaMm2, spur.cpcCsaMm2);
+  if (!perMetre.ok) return;
+  const x = spurOriginFraction(spur.spurOriginPoint, ring.circuit.points);
+  let ringValue: number | null = null;
+  let ringValueText = '';
+  if (x !== null && ring.ringR1 !== null && ring.ringR2 !== null && ring.ringR1 + ring.ringR2 > 0) {
+    ringValue = correctRingReading(ring.ringR1, ring.ringR2, x);
+    ringValueText = `ring ${formatFixed(ringValue, 2)} Ω at its origin (${spur.spurOriginPoint!.trim()}, from r1 and r2)`;
+  } else if (ringRecorded !== null) {
+    ringValue = ringRecorded;
+    ringValueText = `ring ${ringRecorded} Ω (its R1+R2)`;
+  } else if (ring.ringR1 !== null && ring.ringR2 !== null) {
+    ringValue = (ring.ringR1 + ring.ringR2) / 4;
+    ringValueText = `ring ${formatFixed(ringValue, 2)} Ω ((r1+r2)/4)`;
+  }
+  if (ringValue === null) return;
+  const cableOhm = (spur.spurLengthM * perMetre.milliohmPerMetre) / 1000;
+  const expected = ringValue + cableOhm;
+  const allowance = Math.max(SPUR_ALLOWANCE_OHM, SPUR_ALLOWANCE_FRACTION * expected);
+  if (Math.abs(measured - expected) > allowance + EPS) {
+    out.push(
+      finding(
+        'spur-r1r2-unexpected',
+        spur.id,
+        ['r1PlusR2'],
+        `Spur R1+R2 ${measured} Ω; expected about ${formatFixed(expected, 2)} Ω: ${ringValueText} + ${spur.spurLengthM} m of ${spur.liveCsaMm2}/${spur.cpcCsaMm2} at ${perMetre.milliohmPerMetre} mΩ/m.`,
+        `≈ ${formatFixed(expected, 2)} Ω (± ${formatFixed(allowance, 2)} Ω)`,
+        `ring value at the origin + length × R1+R2 per metre (${IEC_60228_SOURCE}); allowance ± the larger of 0.05 Ω and 10 % — common practice`,
+      ),
+    );
+  }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Ordering and the whole board
+// ---------------------------------------------------------------------------------------------
+
+function compareText(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0;
+}
+
+/** The stable order of findings within one circuit: code, columns, message, then the rest. */
+export function compareFindings(a: Finding, b: Finding): number {
+  return (
+    compareText(a.code, b.code) ||
+    compareText(a.columns.join(','), b.columns.join(',')) ||
+    compareText(a.message, b.message) ||
+    compareText(a.severity, b.severity) ||
+    compareText(a.limit ?? '', b.limit ?? '') ||
+    compareText(a.source ?? '', b.source ?? '')
+  );
+}
+
+/** Puts findings in the board's stable order: board-wide first, then by circuit id. */
+function assemble(facts: readonly CircuitFacts[], cross: readonly Finding[]): Finding[] {
+  const byCircuit = new Map<number, Finding[][]>();
+  const boardWide: Finding[] = [];
+  for (const f of facts) {
+    const lists = byCircuit.get(f.circuit.id);
+    if (lists) lists.push(f.local as Finding[]);
+    else byCircuit.set(f.circuit.id, [f.local as Finding[]]);
+  }
+  for (const x of cross) {
+    if (x.circuitId === null) {
+      boardWide.push(x);
+      continue;
+    }
+    const lists = byCircuit.get(x.circuitId);
+    if (lists) lists.push([x]);
+    else byCircuit.set(x.circuitId, [[x]]);
+  }
+  boardWide.sort(compareFindings);
+  const ids = [...byCircuit.keys()].sort((a, b) => a - b);
+  const out = boardWide;
+  for (const id of ids) {
+    const lists = byCircuit.get(id)!;
+    if (lists.length === 1) {
+      for (const x of lists[0]!) out.push(x);
+      continue;
+    }
+    const merged = lists.flat().sort(compareFindings);
+    for (const x of merged) out.push(x);
+  }
+  return out;
+}
+
+/**
+ * Checks a whole board: every circuit's readings against the limits and against each other.
+ * Deterministic; independent of the order of the circuits.
+ */
+export function checkBoard(input: CheckInput): Finding[] {
+  const ctx = contextOf(input);
+  const facts = input.circuits.map((c) => circuitFacts(c, ctx));
+  return assemble(facts, crossCircuitFindings(input, facts));
+}
+
+/**
+ * A checker that remembers each circuit's own findings between calls, for re-checking a board after
+ * an edit. Circuits are recognised by object identity: replace a circuit object when it changes
+ * (as an immutable update does) and never mutate one in place. The rules across circuits run on
+ * every call; the result equals `checkBoard(input)`.
+ */
+export function createBoardChecker(): (input: CheckInput) => Finding[] {
+  const cache = new WeakMap<CheckCircuit, CircuitFacts & { contextKey: string }>();
+  return (input) => {
+    const ctx = contextOf(input);
+    const facts = input.circuits.map((c) => {
+      const hit = cache.get(c);
+      if (hit && hit.contextKey === ctx.key) return hit;
+      const fresh = { ...circuitFacts(c, ctx), contextKey: ctx.key };
+      cache.set(c, fresh);
+      return fresh;
+    });
+    return assemble(facts, crossCircuitFindings(input, facts));
+  };
+}
