@@ -1,0 +1,131 @@
+import { useId, useRef, useState, type FormEvent, type ReactNode } from 'react';
+import type { CreateUserBody } from '../../../../shared/schemas/auth.ts';
+import { roles, type Role } from '../../../../shared/schemas/common.ts';
+import { useCreateUser } from '../api/create-user.ts';
+import { fieldErrorsFrom, type FieldErrors } from '../field-errors.ts';
+
+const fields = ['email', 'name', 'role', 'password'] as const;
+type Field = (typeof fields)[number];
+
+/** What each role may do, shown next to the choice. */
+const roleDescriptions: Record<Role, string> = {
+  tester: 'enters and edits readings',
+  reviewer: 'also locks, unlocks and issues',
+  admin: 'manages people and company details',
+};
+
+const inputClass =
+  'block w-full rounded border border-line-strong bg-surface px-2 py-1 aria-invalid:border-danger aria-invalid:bg-danger-soft';
+
+function Field({ id, label, hint, error, children }: { id: string; label: string; hint?: string; error?: string; children: ReactNode }) {
+  return (
+    <div className="space-y-1">
+      <label htmlFor={id} className="block font-medium">
+        {label}
+      </label>
+      {children}
+      {hint && !error && (
+        <p id={`${id}-hint`} className="text-xs text-muted">
+          {hint}
+        </p>
+      )}
+      {error && (
+        <p id={`${id}-error`} className="text-danger">
+          {error}
+        </p>
+      )}
+    </div>
+  );
+}
+
+/** Props that tie an input to its hint or error. */
+function describedBy(id: string, error: string | undefined, hasHint: boolean) {
+  return {
+    'aria-invalid': error ? true : undefined,
+    'aria-describedby': error ? `${id}-error` : hasHint ? `${id}-hint` : undefined,
+  } as const;
+}
+
+/** Adds a person. The server checks everything; its messages appear at the fields they concern. */
+export function CreateUserForm() {
+  const createUser = useCreateUser();
+  const [errors, setErrors] = useState<FieldErrors<Field> | null>(null);
+  const [created, setCreated] = useState<string | null>(null);
+  const formRef = useRef<HTMLFormElement>(null);
+  const baseId = useId();
+  const id = (field: Field) => `${baseId}-${field}`;
+
+  function handleSubmit(event: FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    if (createUser.isPending) return;
+    const data = new FormData(event.currentTarget);
+    const body: CreateUserBody = {
+      email: String(data.get('email') ?? ''),
+      name: String(data.get('name') ?? ''),
+      role: String(data.get('role') ?? 'tester') as Role,
+      password: String(data.get('password') ?? ''),
+    };
+    setErrors(null);
+    setCreated(null);
+    createUser.mutate(body, {
+      onSuccess: (user) => {
+        formRef.current?.reset();
+        setCreated(`${user.name} can now sign in as ${user.email} (${user.role}).`);
+        document.getElementById(id('email'))?.focus();
+      },
+      onError: (error) => {
+        const found = fieldErrorsFrom(error, fields, 'email');
+        setErrors(found);
+        const first = fields.find((f) => found.fields[f]);
+        if (first) document.getElementById(id(first))?.focus();
+      },
+    });
+  }
+
+  const fieldError = (field: Field) => errors?.fields[field];
+
+  return (
+    <form
+      ref={formRef}
+      aria-labelledby={`${baseId}-heading`}
+      noValidate
+      onSubmit={handleSubmit}
+      className="space-y-3 rounded border border-line bg-surface p-4"
+    >
+      <h2 id={`${baseId}-heading`} className="text-base font-semibold">
+        Add a person
+      </h2>
+      <Field id={id('email')} label="E-mail" error={fieldError('email')}>
+        <input id={id('email')} name="email" type="email" autoComplete="off" spellCheck={false} className={inputClass} {...describedBy(id('email'), fieldError('email'), false)} />
+      </Field>
+      <Field id={id('name')} label="Name" error={fieldError('name')}>
+        <input id={id('name')} name="name" type="text" autoComplete="off" className={inputClass} {...describedBy(id('name'), fieldError('name'), false)} />
+      </Field>
+      <Field id={id('role')} label="Role" error={fieldError('role')}>
+        <select id={id('role')} name="role" defaultValue="tester" className={inputClass} {...describedBy(id('role'), fieldError('role'), false)}>
+          {roles.map((role) => (
+            <option key={role} value={role}>
+              {role} — {roleDescriptions[role]}
+            </option>
+          ))}
+        </select>
+      </Field>
+      <Field id={id('password')} label="Password" hint="At least 10 characters. Pass it on privately." error={fieldError('password')}>
+        <input id={id('password')} name="password" type="password" autoComplete="new-password" className={inputClass} {...describedBy(id('password'), fieldError('password'), true)} />
+      </Field>
+      <button
+        type="submit"
+        aria-disabled={createUser.isPending || undefined}
+        className="rounded bg-accent px-3 py-1.5 font-medium text-white hover:bg-accent-hover aria-disabled:opacity-70"
+      >
+        {createUser.isPending ? 'Adding…' : 'Add person'}
+      </button>
+      <div role="alert" className="empty:hidden text-danger">
+        {errors?.form}
+      </div>
+      <p role="status" className="empty:hidden text-ok">
+        {created}
+      </p>
+    </form>
+  );
+}
