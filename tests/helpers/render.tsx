@@ -1,8 +1,8 @@
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { render } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { useEffect, type ReactElement } from 'react';
-import { MemoryRouter, Route, Routes, useLocation, type InitialEntry } from 'react-router-dom';
+import type { ReactElement } from 'react';
+import { RouterProvider, createMemoryRouter, type InitialEntry, type RouteObject } from 'react-router-dom';
 import { vi } from 'vitest';
 
 /** A QueryClient for one test: nothing shared, no retries, so an error answer shows at once. */
@@ -22,38 +22,33 @@ export interface RenderOptions {
   queryClient?: QueryClient;
 }
 
-function LocationProbe({ onChange }: { onChange: (where: string) => void }) {
-  const location = useLocation();
-  useEffect(() => onChange(`${location.pathname}${location.search}`), [location, onChange]);
-  return null;
-}
-
 /**
- * Renders `ui` inside a fresh QueryClient and a MemoryRouter. Returns testing-library's result
- * plus a user-event instance, the client, and `currentPath()` (path and query the router is at).
+ * Renders `ui` inside a fresh QueryClient and an in-memory router. The router is a data router
+ * (`createMemoryRouter`), like the app's `createBrowserRouter`, so `useNavigation` and navigation
+ * options such as `flushSync` behave as they do in the browser. Returns testing-library's result
+ * plus a user-event instance, the client, the router, and `currentPath()` (path and query).
  */
 export function renderWithProviders(ui: ReactElement, options: RenderOptions = {}) {
   const path = options.path ?? '*';
   const queryClient = options.queryClient ?? createTestQueryClient();
   const initialEntries = options.initialEntries ?? [path.includes(':') || path === '*' ? '/' : path];
-  let where = '';
-  const onChange = (next: string) => {
-    where = next;
-  };
+  const routes: RouteObject[] = [
+    { path, element: ui },
+    ...Object.entries(options.otherRoutes ?? {}).map(([pattern, element]) => ({ path: pattern, element })),
+  ];
+  const router = createMemoryRouter(routes, { initialEntries });
   const result = render(
     <QueryClientProvider client={queryClient}>
-      <MemoryRouter initialEntries={initialEntries}>
-        <LocationProbe onChange={onChange} />
-        <Routes>
-          <Route path={path} element={ui} />
-          {Object.entries(options.otherRoutes ?? {}).map(([pattern, element]) => (
-            <Route key={pattern} path={pattern} element={element} />
-          ))}
-        </Routes>
-      </MemoryRouter>
+      <RouterProvider router={router} />
     </QueryClientProvider>,
   );
-  return { ...result, user: userEvent.setup(), queryClient, currentPath: () => where };
+  return {
+    ...result,
+    user: userEvent.setup(),
+    queryClient,
+    router,
+    currentPath: () => `${router.state.location.pathname}${router.state.location.search}`,
+  };
 }
 
 /** A JSON answer as the API sends it. */

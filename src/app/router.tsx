@@ -1,0 +1,62 @@
+import { Navigate, RouterProvider, createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { UsersPage } from '../features/admin/components/users-page.tsx';
+import { SignInPage } from '../features/auth/components/sign-in-page.tsx';
+import { JobsPage } from '../features/jobs/components/jobs-page.tsx';
+import { AppLayout } from './app-layout.tsx';
+import { FullPageMessage } from './full-page-message.tsx';
+import { NotFoundPage } from './not-found-page.tsx';
+import { RequireAuth } from './require-auth.tsx';
+import { RequireRole } from './require-role.tsx';
+import { RouteErrorPage } from './route-error-page.tsx';
+
+/**
+ * Every route of the app. Signed-out people reach only /sign-in; the rest sits behind RequireAuth
+ * inside the app layout. The board console (the largest part of the client: grid, palette,
+ * checker) is loaded when a board is first opened, so sign-in and the jobs list start quickly.
+ */
+export const appRoutes: RouteObject[] = [
+  {
+    errorElement: <RouteErrorPage />,
+    hydrateFallbackElement: (
+      <div className="flex h-dvh flex-col">
+        <FullPageMessage title="Opening Boardwalk…" />
+      </div>
+    ),
+    children: [
+      { path: '/sign-in', element: <SignInPage /> },
+      {
+        element: (
+          <RequireAuth>
+            <AppLayout />
+          </RequireAuth>
+        ),
+        children: [
+          { index: true, element: <Navigate to="/jobs" replace /> },
+          { path: 'jobs', element: <JobsPage /> },
+          {
+            path: 'boards/:boardId',
+            lazy: async () => {
+              const { BoardConsolePage } = await import('../features/board-console/components/board-console-page.tsx');
+              return { Component: BoardConsolePage };
+            },
+          },
+          {
+            path: 'admin/users',
+            element: (
+              <RequireRole roles={['admin']} refusal="Only an admin can manage people.">
+                <UsersPage />
+              </RequireRole>
+            ),
+          },
+          { path: '*', element: <NotFoundPage /> },
+        ],
+      },
+    ],
+  },
+];
+
+const router = createBrowserRouter(appRoutes);
+
+export function AppRouter() {
+  return <RouterProvider router={router} />;
+}
