@@ -221,6 +221,7 @@ function parseNumber(g: CellGrammar, t: string): ParsedCell {
     return invalid(`"${t}" is not a reading: unexpected "${rest}" after the number${g.unit ? ` (the column is in ${g.unit})` : ''}.`, 'format');
   }
   const value = Number(mantissa);
+  if (!Number.isFinite(value)) return invalid(`"${t}" is too long to be a reading.`, 'format');
   if (g.mode === 'test-voltage') {
     if (over) return invalid('The test voltage is a setting, not a reading: write 250, 500 or 1000.', 'test-voltage');
     if (!TEST_VOLTAGES.has(value)) {
