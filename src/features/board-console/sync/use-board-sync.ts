@@ -1,0 +1,93 @@
+import { useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { useEffect, useMemo, useSyncExternalStore } from 'react';
+import type { CircuitFields } from '../../../../shared/schemas/boards.ts';
+import type { ReadingKey } from '../../../../shared/schemas/columns.ts';
+import { boardDetailQueryOptions } from '../api/get-board.ts';
+import { BoardSyncEngine } from './board-sync-engine.ts';
+import { cellTarget, fieldTarget } from './targets.ts';
+import type { BoardSync } from './types.ts';
+
+/**
+ * One engine per board and QueryClient, however many components ask for it: two engines would
+ * send the same stored outbox twice. Components hold it while mounted; the last one to let go
+ * stops it after the current task, so a StrictMode remount keeps the same engine.
+ */
+const registry = new WeakMap<QueryClient, Map<number, { engine: BoardSyncEngine; holders: number }>>();
+
+function engineFor(queryClient: QueryClient, boardId: number): BoardSyncEngine {
+  let boards = registry.get(queryClient);
+  if (!boards) registry.set(queryClient, (boards = new Map()));
+  let slot = boards.get(boardId);
+  if (!slot) boards.set(boardId, (slot = { engine: new BoardSyncEngine(queryClient, boardId), holders: 0 }));
+  return slot.engine;
+}
+
+function hold(queryClient: QueryClient, engine: BoardSyncEngine): () => void {
+  let boards = registry.get(queryClient);
+  if (!boards) registry.set(queryClient, (boards = new Map()));
+  let slot = boards.get(engine.boardId);
+  if (!slot || slot.engine !== engine) boards.set(engine.boardId, (slot = { engine, holders: 0 }));
+  const held = slot;
+  held.holders += 1;
+  engine.start();
+  return () => {
+    held.holders -= 1;
+    setTimeout(() => {
+      if (held.holders > 0) return;
+      engine.stop();
+      if (boards.get(engine.boardId) === held) boards.delete(engine.boardId);
+    }, 0);
+  };
+}
+
+/**
+ * The board console's connection to the server for one board (see `BoardSync` in types.ts).
+ *
+ * - `detail` is the board from the TanStack Query cache with this typist's unsent edits on top.
+ * - Writes go to an outbox kept in localStorage and are sent one at a time, in order; a reload of
+ *   the page sends what was left.
+ * - The board's changes feed is polled every second while the tab is visible and merged into the
+ *   cache; `present` lists who else has the board open.
+ */
+export function useBoardSync(boardId: number): BoardSync {
+  const queryClient = useQueryClient();
+  const engine = engineFor(queryClient, boardId);
+  useEffect(() => hold(queryClient, engine), [queryClient, engine]);
+
+  const query = useQuery(boardDetailQueryOptions(boardId));
+  const snapshot = useSyncExternalStore(engine.subscribe, engine.getSnapshot, engine.getSnapshot);
+  const detail = useMemo(() => engine.view(query.data, snapshot.entries), [engine, query.data, snapshot.entries]);
+
+  const actions = useMemo(
+    () => ({
+      writeCell: engine.writeCell.bind(engine),
+      writeField: engine.writeField.bind(engine) as BoardSync['writeField'],
+      resolveConflict: engine.resolveConflict.bind(engine),
+      insertCircuit: engine.insertCircuit.bind(engine),
+      removeCircuit: engine.removeCircuit.bind(engine),
+      lockBoard: engine.lockBoard.bind(engine),
+      unlockBoard: engine.unlockBoard.bind(engine),
+    }),
+    [engine],
+  );
+
+  const { pending } = snapshot;
+  const isPending = useMemo(
+    () => (circuitId: number, key: ReadingKey | keyof CircuitFields) => pending.has(cellTarget(circuitId, key as ReadingKey)) || pending.has(fieldTarget(circuitId, key as keyof CircuitFields)),
+    [pending],
+  );
+
+  return useMemo(
+    () => ({
+      detail,
+      isLoading: query.isPending,
+      error: query.error,
+      status: snapshot.status,
+      present: snapshot.present,
+      conflicts: snapshot.conflicts,
+      isPending,
+      ...actions,
+    }),
+    [detail, query.isPending, query.error, snapshot.status, snapshot.present, snapshot.conflicts, isPending, actions],
+  );
+}
