@@ -17,7 +17,7 @@ export function BoardProgress({ cellsFilled, circuitCount }: { cellsFilled: numb
       <span aria-hidden="true" className="h-1.5 w-20 shrink-0 overflow-hidden rounded-full bg-line">
         <span className="block h-full rounded-full bg-accent" style={{ width: `${Math.round(share * 100)}%` }} />
       </span>
-      <span>
+      <span className="tabular-nums">
         {cellsFilled} / {total} <span className="text-muted">cells</span>
       </span>
     </span>

@@ -255,7 +255,7 @@ function SiteSection({
                       <td className="px-3 py-1">
                         <BoardStateLabel state={board.state} />
                       </td>
-                      <td className="px-3 py-1 text-right">{board.circuitCount}</td>
+                      <td className="px-3 py-1 text-right tabular-nums">{board.circuitCount}</td>
                       <td className="px-3 py-1">
                         <BoardProgress cellsFilled={board.cellsFilled} circuitCount={board.circuitCount} />
                       </td>
