@@ -2,6 +2,8 @@ import { screen } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { RequireAuth } from '../../../src/app/require-auth.tsx';
 import { RequireRole } from '../../../src/app/require-role.tsx';
+import { createAppQueryClient } from '../../../src/app/query-client.ts';
+import { useJobs } from '../../../src/features/jobs/api/get-jobs.ts';
 import { SignInPage } from '../../../src/features/auth/components/sign-in-page.tsx';
 import { json, renderWithProviders, stubApi } from '../../helpers/render.tsx';
 
@@ -36,6 +38,29 @@ describe('route guards', () => {
 
     expect(await screen.findByText('Jobs list')).toBeInTheDocument();
     expect(currentPath()).toBe('/jobs?q=smith');
+  });
+
+  it('when the session ends while a page is open, then its next 401 sends the person to sign-in with a note to come back', async () => {
+    stubApi({
+      'GET /api/auth/me': () => json(200, { user: { id: 2, email: 'tess@example.test', name: 'Tess Tester', role: 'tester' } }),
+      'GET /api/sites': () => json(401, { error: { code: 'unauthenticated', message: 'Sign in first.' } }),
+      'GET /api/jobs': () => json(401, { error: { code: 'unauthenticated', message: 'Sign in first.' } }),
+      'GET /api/boards': () => json(401, { error: { code: 'unauthenticated', message: 'Sign in first.' } }),
+    });
+    function JobsProbe() {
+      const jobs = useJobs();
+      return <p>{jobs.isError ? 'Jobs failed' : 'Jobs loading'}</p>;
+    }
+    const { router, currentPath } = renderWithProviders(
+      <RequireAuth>
+        <JobsProbe />
+      </RequireAuth>,
+      { path: '/jobs', otherRoutes: { '/sign-in': <SignInPage /> }, queryClient: createAppQueryClient() },
+    );
+
+    expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
+    expect(currentPath()).toBe('/sign-in');
+    expect(router.state.location.state).toMatchObject({ from: { pathname: '/jobs' } });
   });
 
   it('when a tester opens the admin page, then they read that only an admin can manage people', async () => {
