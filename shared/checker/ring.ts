@@ -353,7 +353,11 @@ export function ringProfile(input: RingProfileInput): RingProfile {
         errorCorrect += (value(i) - expected[i]!) ** 2;
         errorSameEnds += (value(i) - sameEndsRingReading(r1, r2, positions[i]!)) ** 2;
       }
-      sameEnds = errorSameEnds * 4 < errorCorrect; // root-mean-square error at most half
+      // The readings must follow x(1−x)(r1+r2) closely (root-mean-square error within half the
+      // tolerance) and at least twice as well as a sound ring: a strong interconnection can also
+      // read low towards the ends, but not along that curve.
+      const rmsSameEnds = Math.sqrt(errorSameEnds / valid.length);
+      sameEnds = errorSameEnds * 4 < errorCorrect && rmsSameEnds <= tolerance / 2;
     } else {
       const ends = valid.filter((i) => positions[i]! <= 0.2 || positions[i]! >= 0.8).map(value);
       const middle = valid.filter((i) => positions[i]! >= 0.3 && positions[i]! <= 0.7).map(value);
