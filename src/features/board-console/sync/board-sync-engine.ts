@@ -522,6 +522,10 @@ export class BoardSyncEngine {
     if (typeof document !== 'undefined' && document.visibilityState === 'hidden') return;
     const cached = this.cached();
     if (!cached) {
+      // A board that failed to load (no network when the page opened) is asked for again, so
+      // the console comes back by itself with the server.
+      const query = this.queryClient.getQueryState(this.key);
+      if (query?.status === 'error' && query.fetchStatus === 'idle') void this.queryClient.refetchQueries({ queryKey: this.key, type: 'active' });
       this.schedulePoll(this.timings.pollMs);
       return;
     }
