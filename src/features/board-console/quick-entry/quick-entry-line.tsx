@@ -1,0 +1,161 @@
+import { useEffect, useId, useRef, useState, type KeyboardEvent as ReactKeyboardEvent, type Ref } from 'react';
+import type { ColumnKey } from '../../../../shared/schemas/columns.ts';
+import { describeShortcut, detectPlatform, type KeyPlatform } from '../../../lib/commands/shortcut.ts';
+import {
+  describeEntries,
+  parseQuickEntry,
+  previewCircuit,
+  type QuickEntry,
+  type QuickEntryCircuit,
+} from './parse-quick-entry.ts';
+
+/** The key that undoes the last entry, in tinykeys syntax (shown in the hint and the keys overlay). */
+export const QUICK_ENTRY_UNDO_KEY = '$mod+z';
+
+export interface QuickEntryLineProps {
+  circuits: ReadonlyArray<QuickEntryCircuit>;
+  /** Where a value typed straight after a circuit number goes. */
+  activeColumn: ColumnKey;
+  /** A line was read without a mistake: write these cells (in the order typed). */
+  onApply: (entries: QuickEntry[]) => void;
+  /** The undo key was pressed on an empty line: take back the last entry applied. */
+  onUndoLast: () => void;
+  /** Esc was pressed: give the focus back to the grid. */
+  onLeave: () => void;
+  /**
+   * The parent's own word on the last thing it did with an entry ("Undid Zs on circuit 7", "Circuit 7
+   * is locked"): shown in the line's status whenever it changes, in place of the line's summary.
+   */
+  lastApplied?: string;
+  /** As the line is typed: the circuit it is heading for (undefined while it names none), so the grid can follow. */
+  onPreview?: (circuit: QuickEntryCircuit | undefined) => void;
+  /** The input element, so the console can focus the line with its own key. */
+  ref?: Ref<HTMLInputElement>;
+  className?: string;
+  platform?: KeyPlatform;
+}
+
+function isUndoKey(event: ReactKeyboardEvent, platform: KeyPlatform): boolean {
+  const mod = platform === 'apple' ? event.metaKey : event.ctrlKey;
+  const other = platform === 'apple' ? event.ctrlKey : event.metaKey;
+  return mod && !other && !event.shiftKey && !event.altKey && event.key.toLowerCase() === 'z';
+}
+
+/**
+ * The quick-entry line for dictation: "7 zs .44 ir >200" and Enter writes Zs and L-E of circuit 7.
+ *
+ * Keys in the line:
+ * - Enter reads the line. A mistake is said in words (an alert) and the text stays for fixing; a
+ *   good line is handed to `onApply`, cleared, and what went where is announced politely.
+ * - $mod+Z on an empty line calls `onUndoLast` (with text in the line it is the text field's own
+ *   undo, as everywhere else).
+ * - ↑ on an empty line brings back the last line applied (to fix a slip after undoing it).
+ * - Esc calls `onLeave`; the text stays for when the typist comes back.
+ *
+ * The grammar is `parseQuickEntry`'s. Where the line sits and which key focuses it is the console's.
+ */
+export function QuickEntryLine({
+  circuits,
+  activeColumn,
+  onApply,
+  onUndoLast,
+  onLeave,
+  lastApplied,
+  onPreview,
+  ref,
+  className,
+  platform = detectPlatform(),
+}: QuickEntryLineProps) {
+  const [text, setText] = useState('');
+  const [error, setError] = useState('');
+  const [status, setStatus] = useState('');
+  const lastLine = useRef('');
+  const previewed = useRef<number | undefined>(undefined);
+  const inputId = useId();
+  const hintId = useId();
+  const errorId = useId();
+
+  useEffect(() => {
+    if (lastApplied) setStatus(lastApplied);
+  }, [lastApplied]);
+
+  const preview = (line: string) => {
+    if (!onPreview) return;
+    const circuit = previewCircuit(line, { circuits, activeColumn });
+    if (circuit?.id === previewed.current) return;
+    previewed.current = circuit?.id;
+    onPreview(circuit);
+  };
+
+  const apply = () => {
+    const result = parseQuickEntry(text, { circuits, activeColumn });
+    if (!result.ok) {
+      setError(result.message);
+      return;
+    }
+    onApply(result.entries);
+    lastLine.current = text;
+    setText('');
+    setError('');
+    setStatus(`${describeEntries(result.entries)}.`);
+  };
+
+  const onKeyDown = (event: ReactKeyboardEvent<HTMLInputElement>) => {
+    if (event.nativeEvent.isComposing || event.defaultPrevented) return;
+    if (event.key === 'Enter') {
+      event.preventDefault();
+      apply();
+    } else if (event.key === 'Escape') {
+      event.preventDefault();
+      onLeave();
+    } else if (text === '' && isUndoKey(event, platform)) {
+      event.preventDefault();
+      onUndoLast();
+    } else if (text === '' && event.key === 'ArrowUp' && lastLine.current !== '') {
+      event.preventDefault();
+      setText(lastLine.current);
+      preview(lastLine.current);
+    }
+  };
+
+  return (
+    <div className={className}>
+      <div className="flex items-center gap-2">
+        <label htmlFor={inputId} className="shrink-0 font-medium">
+          Quick entry
+        </label>
+        <input
+          ref={ref}
+          id={inputId}
+          type="text"
+          autoComplete="off"
+          autoCorrect="off"
+          spellCheck={false}
+          value={text}
+          placeholder="e.g. 7 zs .44 ir >200"
+          aria-invalid={error ? true : undefined}
+          aria-describedby={error ? `${errorId} ${hintId}` : hintId}
+          onChange={(event) => {
+            setText(event.target.value);
+            setError('');
+            preview(event.target.value);
+          }}
+          onKeyDown={onKeyDown}
+          className="min-w-0 flex-1 rounded border border-line-strong bg-surface px-2 py-1 font-mono outline-none focus:border-accent aria-invalid:border-danger"
+        />
+      </div>
+      <p id={hintId} className="mt-0.5 text-xs text-muted">
+        Enter writes · {describeShortcut(QUICK_ENTRY_UNDO_KEY, platform)} on an empty line undoes the last entry · ↑ recalls
+        the last line · Esc returns to the grid
+      </p>
+      {error && (
+        <p id={errorId} role="alert" className="mt-0.5 text-sm text-danger">
+          {error}
+        </p>
+      )}
+      <p aria-live="polite" className="mt-0.5 min-h-5 text-sm text-ok">
+        {status}
+      </p>
+    </div>
+  );
+}
