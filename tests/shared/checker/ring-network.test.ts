@@ -72,7 +72,7 @@ interface Ring {
   r2: number;
 }
 
-const L = (ring: Ring, k: number) => k; // line node k: 0 = end A, n+1 = end B
+const L = (_ring: Ring, k: number) => k; // line node k: 0 = end A, n+1 = end B
 const C = (ring: Ring, k: number) => ring.n + 2 + k; // cpc node k
 
 function ringResistors(ring: Ring): Resistor[] {
