@@ -1,0 +1,301 @@
+import { useCallback, useMemo, useRef, useState, type KeyboardEvent } from 'react';
+import type { BoardDetail } from '../../../../shared/schemas/boards.ts';
+import type { Role } from '../../../../shared/schemas/common.ts';
+import { columnByKey, isReadingKey, type ColumnKey } from '../../../../shared/schemas/columns.ts';
+import type { Finding } from '../../../../shared/schemas/findings.ts';
+import { CommandPalette } from '../../../components/command-palette.tsx';
+import { KeysOverlay, type KeysSection } from '../../../components/keys-overlay.tsx';
+import { createRegistry } from '../../../lib/commands/registry.ts';
+import { parseShortcut } from '../../../lib/commands/shortcut.ts';
+import type { Command } from '../../../lib/commands/types.ts';
+import { useCommandKeys } from '../../../lib/commands/use-command-keys.ts';
+import { createConsoleCommands, gridKeyRows, gridReservedKeys, type ConsoleContext } from '../commands.ts';
+import { indexFindings, type FindingsIndex } from '../grid/findings-index.ts';
+import type { GridPosition } from '../grid/grid-state.ts';
+import type { CellChange } from '../grid/undo-stack.ts';
+import { QuickEntryLine } from '../quick-entry/quick-entry-line.tsx';
+import { quickEntryWordsSection, type QuickEntry, type QuickEntryCircuit } from '../quick-entry/parse-quick-entry.ts';
+import type { BoardSync, Conflict } from '../sync/types.ts';
+import { BoardGrid } from './board-grid.tsx';
+import { ConflictList } from './conflict-list.tsx';
+import { ConsoleHeader } from './console-header.tsx';
+import { cellKey } from './dom-ids.ts';
+import { FindingsPanel } from './findings-panel.tsx';
+import { StatusLine } from './status-line.tsx';
+import { useGridController } from './use-grid-controller.ts';
+
+export interface BoardConsoleProps {
+  sync: BoardSync;
+  detail: BoardDetail;
+  /** The checker's findings on `detail` as shown (see BoardConsolePage). */
+  findings: readonly Finding[];
+  role: Role | null;
+}
+
+function downloadText(fileName: string, mimeType: string, text: string): void {
+  const url = URL.createObjectURL(new Blob([text], { type: mimeType }));
+  const link = document.createElement('a');
+  link.href = url;
+  link.download = fileName;
+  link.click();
+  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+}
+
+function messageOf(error: unknown): string {
+  return error instanceof Error ? error.message : 'That did not work.';
+}
+
+/** Text-editing keys that belong to a focused text field, never to the console's commands. */
+function keepTextEditingKeys(event: KeyboardEvent) {
+  if ((event.ctrlKey || event.metaKey) && !event.altKey && ['z', 'y', 'a', 'c', 'v', 'x'].includes(event.key.toLowerCase())) {
+    event.stopPropagation();
+  }
+}
+
+/**
+ * The board console: header, quick-entry line, the grid with the findings beside it, conflicts,
+ * and the status line; the palette and the keys overlay on top. One command registry feeds the
+ * palette, the key bindings and the overlay.
+ */
+export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps) {
+  const board = detail.board;
+  const lockedReason =
+    board.state === 'locked' ? `Board ${board.reference} is locked${board.lockedBy ? ` by ${board.lockedBy.name}` : ''}: a reviewer must unlock it before anything changes.` : null;
+
+  const ctxRef = useRef<ConsoleContext | null>(null);
+  const registry = useMemo(
+    () => createRegistry(createConsoleCommands(() => ctxRef.current), { reserved: gridReservedKeys }),
+    [],
+  );
+  // Characters that run a command on their own (e.g. "?"): typing them on a cell runs the command.
+  const commandCharacters = useMemo(() => {
+    const set = new Set<string>();
+    for (const binding of registry.bindings) {
+      const presses = parseShortcut(binding.keys);
+      const press = presses[0];
+      if (presses.length === 1 && press && !binding.firesInTextFields && press.key.length === 1) set.add(press.key);
+    }
+    return set;
+  }, [registry]);
+
+  const grid = useGridController({ sync, detail, lockedReason, commandCharacters });
+
+  const [paletteOpen, setPaletteOpen] = useState(false);
+  const [paletteCommand, setPaletteCommand] = useState<string | undefined>(undefined);
+  const [keysOpen, setKeysOpen] = useState(false);
+  const [quickEntryNote, setQuickEntryNote] = useState<string | undefined>(undefined);
+  const quickEntryRef = useRef<HTMLInputElement | null>(null);
+  const findingsRef = useRef<HTMLUListElement | null>(null);
+
+  // Findings arranged per cell; unchanged circuits keep their objects so their rows do not re-render.
+  const findingsIndexRef = useRef<FindingsIndex | undefined>(undefined);
+  const findingsIndex = useMemo(() => {
+    const next = indexFindings(findings, findingsIndexRef.current);
+    findingsIndexRef.current = next;
+    return next;
+  }, [findings]);
+
+  const conflictsByCell = useMemo(() => {
+    const map = new Map<number, Map<string, Conflict>>();
+    for (const conflict of sync.conflicts) {
+      let row = map.get(conflict.circuitId);
+      if (!row) map.set(conflict.circuitId, (row = new Map()));
+      row.set(conflict.column, conflict);
+    }
+    return map;
+  }, [sync.conflicts]);
+
+  const circuitNumbers = useMemo(() => new Map(detail.circuits.map((c) => [c.id, c.number])), [detail.circuits]);
+  const quickEntryCircuits: QuickEntryCircuit[] = useMemo(() => detail.circuits.map((c) => ({ id: c.id, number: c.number })), [detail.circuits]);
+
+  const active = grid.active;
+  const activeConflict = active ? (conflictsByCell.get(active.circuitId)?.get(active.column) ?? null) : null;
+
+  const openPalette = useCallback((commandId?: string) => {
+    setPaletteCommand(commandId);
+    setPaletteOpen(true);
+  }, []);
+
+  const ctx: ConsoleContext = {
+    detail,
+    sync,
+    role,
+    grid,
+    activeConflict,
+    ui: {
+      openPalette: () => openPalette(),
+      openKeys: () => setKeysOpen(true),
+      openQuickEntry: () => quickEntryRef.current?.focus(),
+      focusFindings: () => {
+        const first = findingsRef.current?.querySelector<HTMLButtonElement>('button[data-finding]:not(:disabled)');
+        if (first) first.focus();
+        else grid.say('There is no finding to go to.');
+      },
+      download: downloadText,
+    },
+  };
+  ctxRef.current = ctx;
+
+  const onCommandError = useCallback((error: unknown, command: Command<ConsoleContext>) => {
+    ctxRef.current?.grid.say(`${command.label}: ${messageOf(error)}`, 'error');
+  }, []);
+
+  useCommandKeys(registry, ctx, {
+    enabled: !paletteOpen && !keysOpen,
+    onNeedsArgs: (command) => openPalette(command.id),
+    onUnavailable: (command, reason) => ctxRef.current?.grid.say(`${command.label}: ${reason}.`, 'error'),
+    onError: onCommandError,
+  });
+
+  const jumpTo = useCallback(
+    (position: GridPosition) => {
+      grid.moveTo(position);
+      grid.focusGrid();
+    },
+    [grid.moveTo, grid.focusGrid],
+  );
+
+  const onJumpToFinding = useCallback(
+    (finding: Finding) => {
+      if (finding.circuitId === null) return;
+      const column = (finding.columns.find((c) => c in columnByKey) ?? ctxRef.current?.grid.active?.column ?? 'description') as ColumnKey;
+      jumpTo({ circuitId: finding.circuitId, column });
+    },
+    [jumpTo],
+  );
+
+  const applyQuickEntry = useCallback(
+    (entries: QuickEntry[]) => {
+      const g = ctxRef.current?.grid;
+      if (!g) return;
+      const changes: CellChange[] = entries.map((e) => {
+        const position = { circuitId: e.circuitId, column: e.column };
+        return { ...position, before: g.read(position), after: e.text };
+      });
+      const result = g.applyChanges(changes, 'dictated', 'dictated entry');
+      const last = entries[entries.length - 1];
+      if (last) g.moveTo({ circuitId: last.circuitId, column: g.active?.column ?? last.column });
+      const first = result.refused[0];
+      setQuickEntryNote(first ? `Not saved — ${first.message}` : undefined);
+      if (first) g.say(`Not saved — ${first.message}`, 'error');
+    },
+    [],
+  );
+
+  const undoQuickEntry = useCallback(() => {
+    const g = ctxRef.current?.grid;
+    if (!g) return;
+    if (!g.canUndo) {
+      setQuickEntryNote('Nothing to undo.');
+      return;
+    }
+    g.undo();
+    setQuickEntryNote('Undid the last entry.');
+    quickEntryRef.current?.focus();
+  }, []);
+
+  const followPreview = useCallback((circuit: QuickEntryCircuit | undefined) => {
+    const g = ctxRef.current?.grid;
+    if (!circuit || !g) return;
+    const column = g.active?.column;
+    if (column) g.dispatch({ type: 'focus', position: { circuitId: circuit.id, column } });
+  }, []);
+
+  const keySections: KeysSection[] = useMemo(
+    () => [
+      {
+        title: 'Grid',
+        note: 'Entry goes down the column: type a value, Enter, the next circuit’s value, Enter…',
+        rows: gridKeyRows.map((row) => ({ label: row.label, keys: row.keys, words: row.words })),
+      },
+      quickEntryWordsSection(),
+    ],
+    [],
+  );
+
+  const activeCircuit = grid.activeCircuit;
+  const activeColumn = active ? columnByKey[active.column] : null;
+  const activeFindings = active ? findingsIndex.byCircuit.get(active.circuitId)?.get(active.column) : undefined;
+  const activeValue = active ? grid.read(active) : '';
+  const activeReason = active && activeCircuit && isReadingKey(active.column) ? (activeCircuit.cells[active.column]?.reason ?? null) : null;
+  const range = grid.range;
+
+  return (
+    <div className="flex h-full min-h-0 flex-col">
+      <ConsoleHeader board={board} site={detail.site} job={detail.job} present={sync.present} status={sync.status} />
+      {lockedReason && (
+        <p role="note" className="shrink-0 border-b border-line bg-locked-soft px-3 py-1 text-sm text-locked">
+          <span aria-hidden="true">▣ </span>
+          {lockedReason}
+        </p>
+      )}
+      <div className="shrink-0 border-b border-line bg-paper px-3 pt-1" onKeyDown={keepTextEditingKeys}>
+        <QuickEntryLine
+          ref={quickEntryRef}
+          circuits={quickEntryCircuits}
+          activeColumn={active?.column ?? 'zs'}
+          onApply={applyQuickEntry}
+          onUndoLast={undoQuickEntry}
+          onLeave={grid.focusGrid}
+          onPreview={followPreview}
+          lastApplied={quickEntryNote}
+        />
+      </div>
+      <div className="flex min-h-0 flex-1">
+        <BoardGrid
+          label={`Schedule of test results, board ${board.reference}`}
+          circuits={detail.circuits}
+          columns={grid.columns}
+          activeIndex={grid.activeIndex}
+          range={range}
+          edit={grid.state.edit}
+          findings={findingsIndex}
+          conflicts={conflictsByCell}
+          cellErrors={grid.cellErrors}
+          gridRef={grid.gridRef}
+          editorRef={grid.editorRef}
+          onKeyDown={grid.onKeyDown}
+          onCellPointerDown={grid.onCellPointerDown}
+          onCellDoubleClick={grid.onCellDoubleClick}
+        />
+        <FindingsPanel
+          findings={findings}
+          circuitOrder={grid.shape.rows}
+          circuitNumbers={circuitNumbers}
+          onJump={onJumpToFinding}
+          listRef={findingsRef}
+        />
+      </div>
+      <ConflictList
+        conflicts={sync.conflicts}
+        circuitNumbers={circuitNumbers}
+        onShow={(conflict) => jumpTo({ circuitId: conflict.circuitId, column: conflict.column as ColumnKey })}
+        onResolve={(conflict, choice) => {
+          sync.resolveConflict(conflict.editId, choice);
+          grid.focusGrid();
+        }}
+      />
+      <StatusLine
+        circuit={activeCircuit}
+        column={activeColumn}
+        value={activeValue}
+        reason={activeReason}
+        findings={activeFindings}
+        refused={active ? grid.cellErrors.get(cellKey(active.circuitId, active.column)) : undefined}
+        edit={grid.state.edit}
+        selectionSize={range ? { rows: range.bottom - range.top + 1, cols: range.right - range.left + 1 } : null}
+        notice={grid.notice}
+        status={sync.status}
+      />
+      <CommandPalette
+        open={paletteOpen}
+        onOpenChange={setPaletteOpen}
+        registry={registry}
+        ctx={ctx}
+        commandId={paletteCommand}
+        onError={onCommandError}
+      />
+      <KeysOverlay open={keysOpen} onOpenChange={setKeysOpen} registry={registry} ctx={ctx} sections={keySections} />
+    </div>
+  );
+}

@@ -1,0 +1,404 @@
+import { useVirtualizer } from '@tanstack/react-virtual';
+import { memo, useLayoutEffect, useMemo, type KeyboardEvent, type MouseEvent, type RefObject } from 'react';
+import type { Circuit } from '../../../../shared/schemas/boards.ts';
+import { columnGroups, type ColumnDef } from '../../../../shared/schemas/columns.ts';
+import type { Severity } from '../../../../shared/schemas/findings.ts';
+import { cellText } from '../grid/cell-value.ts';
+import { severitySymbol, severityWord, type CellFindings, type FindingsIndex, type RowFindings } from '../grid/findings-index.ts';
+import type { CellIndex, EditState, GridPosition, IndexRange } from '../grid/grid-state.ts';
+import type { Conflict } from '../sync/types.ts';
+import { cellDomId, cellErrorDomId, cellFindingDomId, cellKey, rowHeaderDomId } from './dom-ids.ts';
+
+/** Fixed row height (px): dense, and what the virtualiser counts on. */
+export const rowHeight = 28;
+const groupHeaderHeight = 22;
+const columnHeaderHeight = 34;
+export const headerHeight = groupHeaderHeight + columnHeaderHeight;
+export const rowHeaderWidth = 68;
+
+/** Colours per severity; each also shows its symbol (see severitySymbol), never colour alone. */
+export const severityCellClass: Readonly<Record<Severity, string>> = {
+  error: 'bg-danger-soft text-danger',
+  warning: 'bg-amber-50 text-amber-900',
+  note: 'bg-sky-50 text-sky-900',
+};
+
+export const severityBadgeClass: Readonly<Record<Severity, string>> = {
+  error: 'bg-danger text-white',
+  warning: 'bg-amber-500 text-black',
+  note: 'bg-sky-700 text-white',
+};
+
+export interface BoardGridProps {
+  /** Accessible name of the grid, e.g. "Schedule of test results, board DB-1". */
+  label: string;
+  circuits: readonly Circuit[];
+  columns: readonly ColumnDef[];
+  activeIndex: CellIndex | null;
+  range: IndexRange | null;
+  edit: EditState | null;
+  findings: FindingsIndex;
+  /** Conflicts by circuit id, then column key. */
+  conflicts: ReadonlyMap<number, ReadonlyMap<string, Conflict>>;
+  /** Messages for text refused at a cell (not saved), by `cellKey`. */
+  cellErrors: ReadonlyMap<string, string>;
+  gridRef: RefObject<HTMLDivElement | null>;
+  editorRef: RefObject<HTMLInputElement | null>;
+  onKeyDown: (event: KeyboardEvent<HTMLDivElement>) => void;
+  onCellPointerDown: (position: GridPosition, extend: boolean) => void;
+  onCellDoubleClick: (position: GridPosition) => void;
+}
+
+const emptyRowFindings: RowFindings = new Map();
+const emptyRowConflicts: ReadonlyMap<string, Conflict> = new Map();
+const emptyRowErrors: ReadonlyMap<string, string> = new Map();
+
+/**
+ * The schedule as an ARIA grid: two header rows (groups, then columns with their units), one row
+ * per circuit with its number as a sticky row header, virtualised so only the rows in view exist.
+ *
+ * Focus: the grid element keeps the keyboard focus and names the active cell with
+ * `aria-activedescendant`; while a cell is being edited, its text box inside the cell has the focus
+ * and its keys still reach the grid's handler by bubbling.
+ */
+export function BoardGrid(props: BoardGridProps) {
+  const { circuits, columns, activeIndex, range, edit, findings, conflicts, cellErrors, gridRef } = props;
+
+  const offsets = useMemo(() => {
+    const lefts: number[] = [];
+    let x = rowHeaderWidth;
+    for (const c of columns) {
+      lefts.push(x);
+      x += c.width;
+    }
+    return { lefts, total: x };
+  }, [columns]);
+
+  const virtualizer = useVirtualizer({
+    count: circuits.length,
+    getScrollElement: () => gridRef.current,
+    estimateSize: () => rowHeight,
+    overscan: 12,
+    scrollMargin: headerHeight,
+    getItemKey: (index) => circuits[index]?.id ?? index,
+  });
+
+  // Bring the active cell into view when the cursor moves (not when data changes: a live update
+  // never scrolls the typist away).
+  const activeRow = activeIndex?.row ?? -1;
+  const activeCol = activeIndex?.col ?? -1;
+  useLayoutEffect(() => {
+    const el = gridRef.current;
+    if (!el || activeRow < 0 || activeCol < 0) return;
+    const top = headerHeight + activeRow * rowHeight;
+    const viewHeight = el.clientHeight;
+    if (top - headerHeight < el.scrollTop) el.scrollTop = top - headerHeight;
+    else if (top + rowHeight > el.scrollTop + viewHeight) el.scrollTop = top + rowHeight - viewHeight;
+    const left = offsets.lefts[activeCol] ?? 0;
+    const width = columns[activeCol]?.width ?? 0;
+    const viewWidth = el.clientWidth;
+    if (left - rowHeaderWidth < el.scrollLeft) el.scrollLeft = left - rowHeaderWidth;
+    else if (left + width > el.scrollLeft + viewWidth) el.scrollLeft = left + width - viewWidth;
+  }, [activeRow, activeCol, gridRef, offsets, columns]);
+
+  const activeCircuit = activeRow >= 0 ? circuits[activeRow] : undefined;
+  const activeColumn = activeCol >= 0 ? columns[activeCol] : undefined;
+  const activeDescendant = activeCircuit && activeColumn && !edit ? cellDomId(activeCircuit.id, activeColumn.key) : undefined;
+
+  const groups = useMemo(
+    () =>
+      columnGroups
+        .map((g) => {
+          const first = columns.findIndex((c) => c.group === g.id);
+          const span = columns.filter((c) => c.group === g.id).length;
+          const width = columns.filter((c) => c.group === g.id).reduce((sum, c) => sum + c.width, 0);
+          return { ...g, first, span, width };
+        })
+        .filter((g) => g.span > 0),
+    [columns],
+  );
+
+  return (
+    <div
+      ref={gridRef}
+      role="grid"
+      aria-label={props.label}
+      aria-rowcount={circuits.length + 2}
+      aria-colcount={columns.length + 1}
+      aria-multiselectable="true"
+      aria-activedescendant={activeDescendant}
+      tabIndex={0}
+      onKeyDown={props.onKeyDown}
+      className="relative min-h-0 flex-1 overflow-auto bg-surface focus:outline-none focus-visible:ring-2 focus-visible:ring-accent focus-visible:ring-inset"
+    >
+      <div style={{ width: offsets.total }} className="sticky top-0 z-20 bg-surface">
+        <div role="row" aria-rowindex={1} className="flex border-b border-line" style={{ height: groupHeaderHeight }}>
+          <div
+            role="columnheader"
+            aria-colindex={1}
+            className="sticky left-0 z-10 border-r border-line bg-surface"
+            style={{ width: rowHeaderWidth }}
+          />
+          {groups.map((g) => (
+            <div
+              key={g.id}
+              role="columnheader"
+              aria-colindex={g.first + 2}
+              aria-colspan={g.span}
+              className="truncate border-r border-line-strong px-1.5 text-xs leading-[22px] font-semibold tracking-wide text-muted uppercase"
+              style={{ width: g.width }}
+            >
+              {g.label}
+            </div>
+          ))}
+        </div>
+        <div role="row" aria-rowindex={2} className="flex border-b border-line-strong" style={{ height: columnHeaderHeight }}>
+          <div
+            role="columnheader"
+            aria-colindex={1}
+            className="sticky left-0 z-10 flex items-end border-r border-line bg-surface px-1.5 pb-1 text-xs font-semibold"
+            style={{ width: rowHeaderWidth }}
+          >
+            Circuit
+          </div>
+          {columns.map((c, i) => (
+            <div
+              key={c.key}
+              role="columnheader"
+              aria-colindex={i + 2}
+              title={c.meaning}
+              className={`flex flex-col justify-end border-r border-line px-1.5 pb-1 leading-tight ${i === activeCol ? 'bg-accent-soft' : ''}`}
+              style={{ width: c.width }}
+            >
+              <span className="truncate text-xs font-semibold">{c.label}</span>
+              <span className="h-3.5 truncate text-[11px] text-muted">{c.unit ?? ''}</span>
+            </div>
+          ))}
+        </div>
+      </div>
+      <div role="presentation" className="relative" style={{ height: virtualizer.getTotalSize() - headerHeight, width: offsets.total }}>
+        {virtualizer.getVirtualItems().map((item) => {
+          const circuit = circuits[item.index];
+          if (!circuit) return null;
+          const isActiveRow = item.index === activeRow;
+          const inRange = range !== null && item.index >= range.top && item.index <= range.bottom;
+          return (
+            <GridRow
+              key={circuit.id}
+              circuit={circuit}
+              index={item.index}
+              top={item.start - headerHeight}
+              width={offsets.total}
+              columns={columns}
+              activeCol={isActiveRow ? activeCol : -1}
+              edit={isActiveRow ? edit : null}
+              rangeLeft={inRange ? range.left : -1}
+              rangeRight={inRange ? range.right : -1}
+              findings={findings.byCircuit.get(circuit.id) ?? emptyRowFindings}
+              conflicts={conflicts.get(circuit.id) ?? emptyRowConflicts}
+              errors={rowErrors(cellErrors, circuit.id)}
+              editorRef={props.editorRef}
+              onCellPointerDown={props.onCellPointerDown}
+              onCellDoubleClick={props.onCellDoubleClick}
+            />
+          );
+        })}
+      </div>
+    </div>
+  );
+}
+
+/** The refused-text messages of one circuit (a shared empty map when none, so rows stay memoised). */
+function rowErrors(errors: ReadonlyMap<string, string>, circuitId: number): ReadonlyMap<string, string> {
+  if (errors.size === 0) return emptyRowErrors;
+  let found: Map<string, string> | null = null;
+  const prefix = `${circuitId}:`;
+  for (const [key, message] of errors) {
+    if (key.startsWith(prefix)) (found ??= new Map()).set(key.slice(prefix.length), message);
+  }
+  return found ?? emptyRowErrors;
+}
+
+interface GridRowProps {
+  circuit: Circuit;
+  index: number;
+  top: number;
+  width: number;
+  columns: readonly ColumnDef[];
+  activeCol: number;
+  edit: EditState | null;
+  rangeLeft: number;
+  rangeRight: number;
+  findings: RowFindings;
+  conflicts: ReadonlyMap<string, Conflict>;
+  errors: ReadonlyMap<string, string>;
+  editorRef: RefObject<HTMLInputElement | null>;
+  onCellPointerDown: (position: GridPosition, extend: boolean) => void;
+  onCellDoubleClick: (position: GridPosition) => void;
+}
+
+const GridRow = memo(function GridRow(props: GridRowProps) {
+  const { circuit, columns, activeCol, edit, rangeLeft, rangeRight, findings, conflicts, errors } = props;
+  const circuitFindings = findings.get('');
+  const isActiveRow = activeCol >= 0;
+  const hasRange = rangeLeft >= 0 && (rangeRight > rangeLeft || !isActiveRow);
+
+  const pointer = (event: MouseEvent, column: ColumnDef['key']) => {
+    if (event.button !== 0) return;
+    event.preventDefault();
+    props.onCellPointerDown({ circuitId: circuit.id, column }, event.shiftKey);
+  };
+
+  return (
+    <div
+      role="row"
+      aria-rowindex={props.index + 3}
+      className={`absolute left-0 flex border-b border-line ${isActiveRow ? 'bg-accent-soft/40' : ''}`}
+      style={{ height: rowHeight, width: props.width, transform: `translateY(${props.top}px)` }}
+    >
+      <div
+        role="rowheader"
+        id={rowHeaderDomId(circuit.id)}
+        aria-colindex={1}
+        aria-describedby={circuitFindings ? cellFindingDomId(circuit.id, '') : undefined}
+        title={circuit.description || undefined}
+        onMouseDown={(e) => pointer(e, columns[0]!.key)}
+        className={`sticky left-0 z-10 flex items-center justify-between border-r border-line-strong px-1.5 font-mono text-[13px] font-semibold ${
+          isActiveRow ? 'bg-accent-soft text-accent' : 'bg-surface'
+        }`}
+        style={{ width: rowHeaderWidth }}
+      >
+        <span className="truncate">{circuit.number}</span>
+        {circuitFindings && <FindingMark cell={circuitFindings} id={cellFindingDomId(circuit.id, '')} />}
+      </div>
+      {columns.map((column, col) => {
+        const isActive = col === activeCol;
+        const selected = hasRange && col >= rangeLeft && col <= rangeRight;
+        const cellFindings = findings.get(column.key);
+        const conflict = conflicts.get(column.key);
+        const error = errors.get(column.key);
+        const text = cellText(circuit, column.key);
+        const severity: Severity | null = error ? 'error' : (cellFindings?.worst.severity ?? null);
+        const describedBy =
+          [error ? cellErrorDomId(circuit.id, column.key) : null, cellFindings ? cellFindingDomId(circuit.id, column.key) : null, conflict ? `${cellDomId(circuit.id, column.key)}-conflict` : null]
+            .filter(Boolean)
+            .join(' ') || undefined;
+        const lim = column.storage === 'reading' && text.toUpperCase() === 'LIM' ? circuit.cells[column.key as keyof Circuit['cells']]?.reason : undefined;
+        return (
+          <div
+            key={column.key}
+            role="gridcell"
+            id={cellDomId(circuit.id, column.key)}
+            aria-colindex={col + 2}
+            aria-selected={isActive || selected}
+            aria-invalid={severity === 'error' ? true : undefined}
+            aria-describedby={describedBy}
+            data-cell={cellKey(circuit.id, column.key)}
+            title={lim ? `Limitation: ${lim}` : undefined}
+            onMouseDown={(e) => pointer(e, column.key)}
+            onDoubleClick={() => props.onCellDoubleClick({ circuitId: circuit.id, column: column.key })}
+            className={`relative flex items-center border-r border-line ${severity ? severityCellClass[severity] : ''} ${
+              selected && !isActive ? 'bg-accent-soft!' : ''
+            } ${isActive ? 'z-[1] outline-2 -outline-offset-2 outline-accent' : ''}`}
+            style={{ width: column.width }}
+          >
+            {isActive && edit ? (
+              <CellEditor
+                edit={edit}
+                editorRef={props.editorRef}
+                label={`${column.label} of circuit ${circuit.number}`}
+                errorId={error ? cellErrorDomId(circuit.id, column.key) : undefined}
+                numeric={column.valueKind === 'reading' || column.valueKind === 'number' || column.valueKind === 'integer'}
+              />
+            ) : (
+              <span className={`min-w-0 flex-1 truncate px-1.5 ${column.valueKind === 'text' || column.valueKind === 'choice' ? '' : 'font-mono text-[13px]'}`}>
+                {text}
+              </span>
+            )}
+            {conflict && (
+              <span aria-hidden="true" className="mr-0.5 rounded bg-locked px-0.5 text-[10px] leading-none font-bold text-white" title={`Conflict: theirs "${conflict.theirs}", yours "${conflict.mine}"`}>
+                ⇄
+              </span>
+            )}
+            {conflict && (
+              <span id={`${cellDomId(circuit.id, column.key)}-conflict`} className="sr-only">
+                Conflict: {conflict.theirsBy ?? 'someone'} wrote “{conflict.theirs}”, you wrote “{conflict.mine}”.
+              </span>
+            )}
+            {error && (
+              <span id={cellErrorDomId(circuit.id, column.key)} className="sr-only">
+                Not saved: {error}
+              </span>
+            )}
+            {error ? (
+              <span aria-hidden="true" className={`mr-0.5 shrink-0 rounded px-0.5 text-[10px] leading-none font-bold ${severityBadgeClass.error}`}>
+                {severitySymbol.error}
+              </span>
+            ) : (
+              cellFindings && <FindingMark cell={cellFindings} id={cellFindingDomId(circuit.id, column.key)} />
+            )}
+          </div>
+        );
+      })}
+    </div>
+  );
+});
+
+/** The worst finding's symbol (visible) and its text (for `aria-describedby`, read by screen readers). */
+function FindingMark({ cell, id }: { cell: CellFindings; id: string }) {
+  const { worst, all } = cell;
+  const more = all.length > 1 ? ` (and ${all.length - 1} more)` : '';
+  return (
+    <>
+      <span
+        aria-hidden="true"
+        title={`${severityWord[worst.severity]}: ${worst.message}`}
+        className={`mr-0.5 inline-flex h-3.5 min-w-3.5 shrink-0 items-center justify-center rounded px-0.5 text-[10px] leading-none font-bold ${severityBadgeClass[worst.severity]}`}
+      >
+        {severitySymbol[worst.severity]}
+      </span>
+      <span id={id} className="sr-only">
+        {severityWord[worst.severity]}: {worst.message}
+        {worst.limit ? ` Limit ${worst.limit}.` : ''}
+        {more}
+      </span>
+    </>
+  );
+}
+
+interface CellEditorProps {
+  edit: EditState;
+  editorRef: RefObject<HTMLInputElement | null>;
+  label: string;
+  errorId: string | undefined;
+  numeric: boolean;
+}
+
+/**
+ * The text box of the cell being edited. Uncontrolled: each character typed changes only the
+ * browser's text box, not React state, so typing costs no re-render of the grid. The console reads
+ * the value when the edit is committed.
+ */
+function CellEditor({ edit, editorRef, label, errorId, numeric }: CellEditorProps) {
+  useLayoutEffect(() => {
+    const input = editorRef.current;
+    if (!input) return;
+    input.focus({ preventScroll: true });
+    const end = input.value.length;
+    input.setSelectionRange(end, end);
+  }, [editorRef]);
+  return (
+    <input
+      ref={editorRef}
+      defaultValue={edit.draft}
+      aria-label={label}
+      aria-invalid={errorId ? true : undefined}
+      aria-describedby={errorId}
+      autoComplete="off"
+      spellCheck={false}
+      inputMode={numeric ? 'decimal' : undefined}
+      data-edit-mode={edit.mode}
+      className="h-full w-full min-w-0 bg-surface px-1.5 font-mono text-[13px] text-ink outline-none"
+    />
+  );
+}
