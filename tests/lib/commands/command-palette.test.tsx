@@ -1,6 +1,6 @@
-import { render, screen, within } from '@testing-library/react';
+import { act, render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { useState } from 'react';
+import { StrictMode, useState } from 'react';
 import { describe, expect, it, vi } from 'vitest';
 import { CommandPalette } from '../../../src/components/command-palette.tsx';
 import { createRegistry, type CommandRegistry } from '../../../src/lib/commands/registry.ts';
@@ -51,13 +51,23 @@ function Harness({ registry, ctx, commandId }: { registry: CommandRegistry<Ctx>;
         Open palette
       </button>
       <CommandPalette open={open} onOpenChange={setOpen} registry={registry} ctx={ctx} commandId={commandId} platform="other" />
+      {open && (
+        <button type="button" onClick={() => setOpen(false)}>
+          Close from outside
+        </button>
+      )}
     </>
   );
 }
 
 async function openPalette(registry: CommandRegistry<Ctx>, ctx: Ctx = { role: 'tester' }, commandId?: string) {
   const user = userEvent.setup();
-  render(<Harness registry={registry} ctx={ctx} commandId={commandId} />);
+  // StrictMode, as in the app: its rehearsed unmount must not move the focus out of the palette.
+  render(
+    <StrictMode>
+      <Harness registry={registry} ctx={ctx} commandId={commandId} />
+    </StrictMode>,
+  );
   const opener = screen.getByRole('button', { name: 'Open palette' });
   opener.focus();
   await user.keyboard('{Enter}');
@@ -194,5 +204,13 @@ describe('CommandPalette', () => {
     expect(within(dialog).getByRole('combobox')).toHaveFocus();
     expect(onPageKey).not.toHaveBeenCalled();
     window.removeEventListener('keydown', onPageKey);
+  });
+
+  it('gives the focus back when the app closes it', async () => {
+    const { dialog, opener } = await openPalette(commands());
+    expect(within(dialog).getByRole('combobox')).toHaveFocus();
+    act(() => screen.getByRole('button', { name: 'Close from outside' }).click());
+    await waitFor(() => expect(opener).toHaveFocus());
+    expect(screen.queryByRole('dialog')).not.toBeInTheDocument();
   });
 });

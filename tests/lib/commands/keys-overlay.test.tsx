@@ -1,6 +1,6 @@
 import { render, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { useState } from 'react';
+import { StrictMode, useState } from 'react';
 import { describe, expect, it } from 'vitest';
 import { KeysOverlay, type KeysSection } from '../../../src/components/keys-overlay.tsx';
 import { createRegistry } from '../../../src/lib/commands/registry.ts';
@@ -74,7 +74,11 @@ function Harness() {
 describe('KeysOverlay', () => {
   it('lists every command with a shortcut under its group, then the extra sections; Esc closes', async () => {
     const user = userEvent.setup();
-    render(<Harness />);
+    render(
+      <StrictMode>
+        <Harness />
+      </StrictMode>,
+    );
     const opener = screen.getByRole('button', { name: 'Keys' });
     opener.focus();
     await user.keyboard('{Enter}');
