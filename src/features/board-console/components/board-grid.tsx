@@ -166,6 +166,7 @@ export function BoardGrid(props: BoardGridProps) {
               key={c.key}
               role="columnheader"
               aria-colindex={i + 2}
+              aria-label={c.unit ? `${c.label} (${c.unit})` : c.label}
               title={c.meaning}
               className={`flex flex-col justify-end border-r border-line px-1.5 pb-1 leading-tight ${i === activeCol ? 'bg-accent-soft' : ''}`}
               style={{ width: c.width }}

@@ -1,0 +1,191 @@
+import { screen, waitFor, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import type { Finding } from '../../../../shared/schemas/findings.ts';
+import { activeCell, boardDetail, cellOf, circuit, renderConsole } from './console-fixture.tsx';
+
+const zsOverMax: Finding = {
+  code: 'zs-over-max',
+  severity: 'error',
+  circuitId: 12,
+  columns: ['zs'],
+  message: 'Zs 1.52 Ω is over the maximum 1.37 Ω for a B32 at 0.4 s.',
+  limit: '≤ 1.37 Ω',
+  source: 'BS 7671:2018 Table 41.3',
+};
+
+const insulationLow: Finding = {
+  code: 'ir-near-minimum',
+  severity: 'warning',
+  circuitId: 13,
+  columns: ['irLiveEarth'],
+  message: 'IR L-E 2 MΩ is low for a new circuit.',
+  limit: '≥ 1.0 MΩ',
+  source: 'BS 7671:2018 Table 64',
+};
+
+const boardNote: Finding = {
+  code: 'board-note',
+  severity: 'note',
+  circuitId: null,
+  columns: [],
+  message: 'Phase sequence not confirmed.',
+  limit: null,
+  source: 'common practice',
+};
+
+function board() {
+  return boardDetail([
+    circuit(11, '1', { zs: '0.44' }),
+    circuit(12, '2', { zs: '1.52' }, { kind: 'ring', description: 'Kitchen sockets' }),
+    circuit(13, '3', { irLiveEarth: '2' }),
+  ]);
+}
+
+describe('the grid for screen readers', () => {
+  it('when the board shows, then the grid names its rows, columns, header rows and the active cell', () => {
+    const { grid } = renderConsole(board());
+    expect(grid).toHaveAttribute('aria-rowcount', '5');
+    expect(grid).toHaveAttribute('aria-colcount', '30');
+    expect(grid).toHaveAccessibleName('Schedule of test results, board DB-T');
+    const rows = within(grid).getAllByRole('row');
+    expect(rows[0]).toHaveAttribute('aria-rowindex', '1');
+    expect(within(rows[0]!).getByRole('columnheader', { name: 'Loop impedance' })).toHaveAttribute('aria-colspan', '1');
+    expect(within(rows[1]!).getByRole('columnheader', { name: 'Zs (Ω)' })).toBeDefined();
+    expect(rows[2]).toHaveAttribute('aria-rowindex', '3');
+    expect(within(rows[2]!).getByRole('rowheader')).toHaveTextContent('1');
+    const active = activeCell(grid);
+    expect(active).toHaveAttribute('role', 'gridcell');
+    expect(active).toHaveAttribute('aria-selected', 'true');
+    expect(grid.querySelectorAll('[role="gridcell"][aria-selected="true"]')).toHaveLength(1);
+  });
+
+  it('when a cell has an error finding, then it is aria-invalid, shows a symbol and is described by the finding', () => {
+    const { grid } = renderConsole(board(), { findings: [zsOverMax, insulationLow, boardNote] });
+    const zs = cellOf(grid, '2', 'Zs');
+    expect(zs).toHaveAttribute('aria-invalid', 'true');
+    expect(zs).toHaveTextContent('✕');
+    expect(zs).toHaveAccessibleDescription('Error: Zs 1.52 Ω is over the maximum 1.37 Ω for a B32 at 0.4 s. Limit ≤ 1.37 Ω.');
+
+    const le = cellOf(grid, '3', 'L-E');
+    expect(le).not.toHaveAttribute('aria-invalid');
+    expect(le).toHaveTextContent('!');
+    expect(le).toHaveAccessibleDescription('Warning: IR L-E 2 MΩ is low for a new circuit. Limit ≥ 1.0 MΩ.');
+
+    expect(cellOf(grid, '1', 'Zs')).not.toHaveAttribute('aria-describedby');
+  });
+
+  it('when the cursor is on a cell with a finding, then the status line gives the finding, its limit and its source', async () => {
+    const { grid, user } = renderConsole(board(), { findings: [zsOverMax] });
+    await user.click(cellOf(grid, '2', 'Zs'));
+    const footer = screen.getByRole('contentinfo');
+    expect(footer).toHaveTextContent('Circuit 2 · Kitchen sockets');
+    expect(footer).toHaveTextContent('Zs (Ω) — Maximum measured earth fault loop impedance');
+    expect(footer).toHaveTextContent('Error: Zs 1.52 Ω is over the maximum 1.37 Ω for a B32 at 0.4 s.');
+    expect(footer).toHaveTextContent('Limit ≤ 1.37 Ω · Source: BS 7671:2018 Table 41.3');
+    expect(footer).toHaveTextContent('saved');
+  });
+});
+
+describe('the findings list', () => {
+  it('when a finding is chosen with Enter, then the cursor jumps to its cell and the focus returns to the grid', async () => {
+    const { grid, user } = renderConsole(board(), { findings: [insulationLow, zsOverMax, boardNote] });
+    const list = screen.getByRole('list', { name: 'Findings' });
+    const items = within(list).getAllByRole('button');
+    // Worst first.
+    expect(items[0]).toHaveTextContent('Circuit 2 · Zs');
+    expect(items[1]).toHaveTextContent('Circuit 3 · L-E');
+    await user.keyboard('{Control>}{Shift>}f{/Shift}{/Control}');
+    expect(document.activeElement).toBe(items[0]);
+    await user.keyboard('{ArrowDown}{Enter}');
+    expect(document.activeElement).toBe(grid);
+    expect(activeCell(grid)).toBe(cellOf(grid, '3', 'L-E'));
+  });
+
+  it('when a severity is switched off, then its findings leave the list', async () => {
+    const { user } = renderConsole(board(), { findings: [insulationLow, zsOverMax, boardNote] });
+    await user.click(screen.getByRole('button', { name: /Errors 1/ }));
+    const list = screen.getByRole('list', { name: 'Findings' });
+    expect(within(list).queryByText(/Circuit 2/)).toBeNull();
+    expect(within(list).getByText(/Circuit 3/)).toBeDefined();
+  });
+});
+
+describe('conflicts', () => {
+  it('when someone else wrote a cell first, then the cell shows both values and the two choices reach the sync engine', async () => {
+    const { grid, user, resolved } = renderConsole(board(), {
+      conflicts: [{ editId: 'e1', circuitId: 11, column: 'zs', mine: '0.45', theirs: '0.47', theirsBy: 'Ruth' }],
+    });
+    const cell = cellOf(grid, '1', 'Zs');
+    expect(cell).toHaveTextContent('⇄');
+    expect(cell).toHaveAccessibleDescription('Conflict: Ruth wrote “0.47”, you wrote “0.45”.');
+    await user.click(screen.getByRole('button', { name: 'Circuit 1 · Zs: keep their value 0.47' }));
+    await user.click(screen.getByRole('button', { name: 'Circuit 1 · Zs: write my value 0.45' }));
+    expect(resolved).toEqual([
+      { editId: 'e1', choice: 'keep-theirs' },
+      { editId: 'e1', choice: 'overwrite' },
+    ]);
+  });
+});
+
+describe('commands from the palette', () => {
+  it('when a tester opens the palette, then locking is shown disabled with its reason', async () => {
+    const { user } = renderConsole(board(), { role: 'tester' });
+    await user.keyboard('{Control>}k{/Control}');
+    const dialog = await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('lock the board');
+    const option = within(dialog).getByRole('option', { name: /Lock the board/ });
+    expect(option).toHaveAccessibleName(/not available: Only a reviewer or an admin can lock a board/);
+  });
+
+  it('when a limitation is marked with a reason, then LIM and the reason are written on the active cell', async () => {
+    const { grid, user, calls } = renderConsole(board());
+    await user.click(cellOf(grid, '3', 'Zs'));
+    await user.keyboard('{Control>}k{/Control}');
+    await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('mark a limitation{Enter}');
+    await user.keyboard('No access: locked plant room{Enter}');
+    await waitFor(() => expect(calls).toEqual([{ kind: 'cell', circuitId: 13, column: 'zs', text: 'LIM', reason: 'No access: locked plant room', how: 'typed' }]));
+    expect(document.activeElement).toBe(grid);
+    expect(cellOf(grid, '3', 'Zs')).toHaveAttribute('title', 'Limitation: No access: locked plant room');
+  });
+
+  it('when a spur is linked, then its kind, ring, origin point and length are written', async () => {
+    const { grid, user, calls } = renderConsole(board());
+    await user.click(cellOf(grid, '3', 'Zs'));
+    await user.keyboard('{Control>}k{/Control}');
+    await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('link a spur{Enter}');
+    await user.keyboard('Kitchen{Enter}');
+    await user.keyboard('socket 4{Enter}');
+    await user.keyboard('7{Enter}');
+    await user.keyboard('{Enter}');
+    await waitFor(() =>
+      expect(calls).toEqual([
+        { kind: 'field', circuitId: 13, field: 'kind', value: 'spur', how: 'typed' },
+        { kind: 'field', circuitId: 13, field: 'spurRingId', value: 12, how: undefined },
+        { kind: 'field', circuitId: 13, field: 'spurOriginPoint', value: 'socket 4', how: undefined },
+        { kind: 'field', circuitId: 13, field: 'spurLengthM', value: 7, how: undefined },
+      ]),
+    );
+  });
+
+  it('when the keys overlay is opened with ?, then it lists the grid keys and the commands', async () => {
+    const { user } = renderConsole(board());
+    await user.keyboard('{Shift>}?{/Shift}');
+    const dialog = await screen.findByRole('dialog', { name: 'Keys' });
+    expect(within(dialog).getByText('Same as above, then down')).toBeDefined();
+    expect(within(dialog).getByText(/Save and go down the column/)).toBeDefined();
+  });
+
+  it('when a circuit that is not on the board is asked for, then the answer is in words', async () => {
+    const { grid, user } = renderConsole(board());
+    await user.keyboard('{Control>}g{/Control}');
+    await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('17{Enter}');
+    await waitFor(() => expect(screen.getByRole('status')).toHaveTextContent('There is no circuit 17 on this board.'));
+    await user.keyboard('{Control>}g{/Control}');
+    await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('3{Enter}');
+    await waitFor(() => expect(activeCell(grid)?.closest('[role="row"]')).toHaveAttribute('aria-rowindex', '5'));
+  });
+});
