@@ -364,16 +364,6 @@ function ChoiceStep({
       />
       <Cmdk.List label={param.label} className="min-h-0 overflow-auto p-1">
         <Cmdk.Empty className="px-3 py-4 text-muted">{options.length === 0 ? 'Nothing to choose from.' : 'No option matches.'}</Cmdk.Empty>
-        {!param.required && (
-          <Cmdk.Item
-            value="none"
-            keywords={['leave empty', 'none', 'skip']}
-            onSelect={() => onConfirm('')}
-            className="rounded px-2 py-1.5 text-muted data-[selected=true]:bg-accent-soft"
-          >
-            Leave empty
-          </Cmdk.Item>
-        )}
         {options.map((option) => (
           <Cmdk.Item
             key={option.value}
@@ -385,6 +375,16 @@ function ChoiceStep({
             {option.label}
           </Cmdk.Item>
         ))}
+        {!param.required && (
+          <Cmdk.Item
+            value="none"
+            keywords={['leave empty', 'none', 'skip']}
+            onSelect={() => onConfirm('')}
+            className="rounded px-2 py-1.5 text-muted data-[selected=true]:bg-accent-soft"
+          >
+            Leave empty
+          </Cmdk.Item>
+        )}
       </Cmdk.List>
       <p className="border-t border-line px-3 py-1 text-xs text-muted">Enter to choose · Esc to go back</p>
     </Cmdk>

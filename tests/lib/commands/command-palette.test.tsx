@@ -29,6 +29,7 @@ function commands(overrides: { lock?: Command<Ctx>['run']; polarity?: Command<Ct
         { name: 'ring', label: 'Ring', kind: 'choice', required: true, options: () => [{ value: '4', label: 'Circuit 4 · Kitchen sockets' }, { value: '9', label: 'Circuit 9 · Upstairs sockets' }] },
         { name: 'origin', label: 'Origin point', kind: 'text', required: true, initial: 'socket 1' },
         { name: 'lengthM', label: 'Spur length (m)', kind: 'number' },
+        { name: 'csa', label: 'Spur csa', kind: 'choice', options: () => [{ value: '2.5', label: '2.5 mm²' }, { value: '4', label: '4 mm²' }] },
       ],
       run: overrides.spur ?? (() => {}),
     },
@@ -155,14 +156,18 @@ describe('CommandPalette', () => {
     await user.clear(length);
     await user.keyboard('3.5{Enter}');
 
-    expect(spur).toHaveBeenCalledWith({ role: 'tester' }, { ring: '9', origin: 'socket 4', lengthM: '3.5' });
+    // An optional choice: the options first, then a way to leave it empty.
+    expect(within(dialog).getAllByRole('option').map((o) => o.textContent)).toEqual(['2.5 mm²', '4 mm²', 'Leave empty']);
+    await user.keyboard('4{Enter}');
+
+    expect(spur).toHaveBeenCalledWith({ role: 'tester' }, { ring: '9', origin: 'socket 4', lengthM: '3.5', csa: '4' });
     expect(screen.queryByRole('dialog')).not.toBeInTheDocument();
   });
 
   it('leaves an optional param out when it is left empty', async () => {
     const spur = vi.fn();
     const { user } = await openPalette(commands({ spur }));
-    await user.keyboard('spur{Enter}{Enter}{Enter}{Enter}');
+    await user.keyboard('spur{Enter}{Enter}{Enter}{Enter}empty{Enter}');
     expect(spur).toHaveBeenCalledWith({ role: 'tester' }, { ring: '4', origin: 'socket 1' });
   });
 

@@ -362,3 +362,19 @@ export function quickEntryWordsSection(): { title: string; note: string; rows: A
       .filter((row) => row.words.length > 0),
   };
 }
+
+/** The key that undoes the last entry from an empty quick-entry line, in tinykeys syntax. */
+export const QUICK_ENTRY_UNDO_KEY = '$mod+z';
+
+/** The keys of the quick-entry line, for the keys overlay. Shaped like the overlay's `KeysSection`. */
+export function quickEntryKeysSection(): { title: string; rows: Array<{ label: string; keys: string[] }> } {
+  return {
+    title: 'Quick-entry line',
+    rows: [
+      { label: 'Read the line and write what it says', keys: ['Enter'] },
+      { label: 'Undo the last entry (on an empty line)', keys: [QUICK_ENTRY_UNDO_KEY] },
+      { label: 'Bring back the last line written (on an empty line)', keys: ['ArrowUp'] },
+      { label: 'Back to the grid', keys: ['Escape'] },
+    ],
+  };
+}

@@ -5,12 +5,10 @@ import {
   describeEntries,
   parseQuickEntry,
   previewCircuit,
+  QUICK_ENTRY_UNDO_KEY,
   type QuickEntry,
   type QuickEntryCircuit,
 } from './parse-quick-entry.ts';
-
-/** The key that undoes the last entry, in tinykeys syntax (shown in the hint and the keys overlay). */
-export const QUICK_ENTRY_UNDO_KEY = '$mod+z';
 
 export interface QuickEntryLineProps {
   circuits: ReadonlyArray<QuickEntryCircuit>;

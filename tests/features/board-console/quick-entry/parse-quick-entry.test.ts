@@ -6,6 +6,7 @@ import {
   describeEntries,
   parseQuickEntry,
   previewCircuit,
+  quickEntryKeysSection,
   quickEntryWordsSection,
   type QuickEntryContext,
 } from '../../../../src/features/board-console/quick-entry/parse-quick-entry.ts';
@@ -146,9 +147,12 @@ describe('column words', () => {
     expect(aliases.length).toBe(new Set(aliases).size);
   });
 
-  it('lists the words for the keys overlay', () => {
+  it('lists the words and the keys of the line for the keys overlay', () => {
     const section = quickEntryWordsSection();
     expect(section.rows).toContainEqual({ label: 'Zs (Ω): Maximum measured earth fault loop impedance', words: ['zs'] });
+    // The R2 column's key is taken by ring r2's alias: the overlay offers only words that reach it.
+    expect(section.rows).toContainEqual({ label: 'R2 (Ω): cpc resistance alone, measured with a long lead', words: ['wander', 'lead', 'bigr2'] });
+    expect(quickEntryKeysSection().rows).toContainEqual({ label: 'Undo the last entry (on an empty line)', keys: ['$mod+z'] });
   });
 });
 
