@@ -3,7 +3,9 @@ import { fileURLToPath } from 'node:url';
 import { createApp, sessionSecretFrom } from './app.ts';
 import { openDatabase } from './db/database.ts';
 import { migrateToLatest } from './db/migrate.ts';
-import { databaseHasUsers, seedDemo, demoAccounts, demoPassword } from './db/seed/seed-demo.ts';
+import { demoAccounts, demoPassword } from './db/seed/demo-scenario.ts';
+import { databaseHasUsers, seedDemo } from './db/seed/seed-demo.ts';
+import { findUserByEmail } from './db/users.ts';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const port = Number(process.env.PORT ?? 3000);
@@ -15,7 +17,12 @@ if (applied.length > 0) console.log(`Applied migrations: ${applied.join(', ')}`)
 
 if (!(await databaseHasUsers(db))) {
   await seedDemo(db);
-  console.log('Seeded the demo data. Demo sign-ins (password for all: %s):', demoPassword);
+  console.log('Seeded the demo data into an empty database.');
+}
+// The demo sign-ins are printed while the demo accounts exist (they are demo data only).
+const demoPresent = await Promise.all(demoAccounts.map((a) => findUserByEmail(db, a.email)));
+if (demoPresent.some(Boolean)) {
+  console.log(`Demo sign-ins (password for all: ${demoPassword}):`);
   for (const account of demoAccounts) console.log(`  ${account.role.padEnd(8)} ${account.email}`);
 }
 

@@ -110,7 +110,7 @@ export const columns: readonly ColumnDef[] = [
   { key: 'ringR2', storage: 'reading', group: 'continuity', label: 'r2', unit: 'Ω', meaning: 'Ring final: cpc end to end', valueKind: 'reading', aliases: ['r2'], width: 60 },
   { key: 'r1PlusR2', storage: 'reading', group: 'continuity', label: 'R1+R2', unit: 'Ω', meaning: 'Line plus cpc resistance at the farthest point', valueKind: 'reading', aliases: ['r1r2', 'r1+r2', 'rr', 'cont'], width: 66 },
   { key: 'r2', storage: 'reading', group: 'continuity', label: 'R2', unit: 'Ω', meaning: 'cpc resistance alone, measured with a long lead', valueKind: 'reading', aliases: ['wander', 'lead', 'bigr2'], width: 60 },
-  { key: 'irTestVoltage', storage: 'reading', group: 'insulation', label: 'Test V', unit: 'V', meaning: 'Insulation resistance test voltage (250, 500 or 1000 V DC)', valueKind: 'reading', aliases: ['v', 'volts', 'testv'], width: 60 },
+  { key: 'irTestVoltage', storage: 'reading', group: 'insulation', label: 'Test V', unit: 'V', meaning: 'Insulation resistance test voltage (250, 500 or 1000 V DC)', valueKind: 'reading', aliases: ['tv', 'testv', 'volts'], width: 60 },
   { key: 'irLiveLive', storage: 'reading', group: 'insulation', label: 'L-L', unit: 'MΩ', meaning: 'Insulation resistance between live conductors', valueKind: 'reading', aliases: ['ll', 'irll'], width: 60 },
   { key: 'irLiveEarth', storage: 'reading', group: 'insulation', label: 'L-E', unit: 'MΩ', meaning: 'Insulation resistance between live conductors and earth', valueKind: 'reading', aliases: ['ir', 'le', 'irle'], width: 60 },
   { key: 'polarity', storage: 'reading', group: 'insulation', label: 'Polarity', meaning: 'Polarity confirmed (✓) or wrong (✗)', valueKind: 'pass-fail', aliases: ['pol', 'polarity'], width: 64 },
