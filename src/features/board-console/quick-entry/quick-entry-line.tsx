@@ -33,10 +33,20 @@ export interface QuickEntryLineProps {
   platform?: KeyPlatform;
 }
 
-function isUndoKey(event: ReactKeyboardEvent, platform: KeyPlatform): boolean {
+function withMod(event: ReactKeyboardEvent, platform: KeyPlatform): boolean {
   const mod = platform === 'apple' ? event.metaKey : event.ctrlKey;
   const other = platform === 'apple' ? event.ctrlKey : event.metaKey;
-  return mod && !other && !event.shiftKey && !event.altKey && event.key.toLowerCase() === 'z';
+  return mod && !other && !event.altKey;
+}
+
+function isUndoKey(event: ReactKeyboardEvent, platform: KeyPlatform): boolean {
+  return withMod(event, platform) && !event.shiftKey && event.key.toLowerCase() === 'z';
+}
+
+/** $mod+Z, $mod+Shift+Z, $mod+Y: the text field's own undo and redo while it holds text. */
+function isTextUndoRedo(event: ReactKeyboardEvent, platform: KeyPlatform): boolean {
+  const key = event.key.toLowerCase();
+  return withMod(event, platform) && (key === 'z' || (key === 'y' && !event.shiftKey));
 }
 
 /**
@@ -45,8 +55,8 @@ function isUndoKey(event: ReactKeyboardEvent, platform: KeyPlatform): boolean {
  * Keys in the line:
  * - Enter reads the line. A mistake is said in words (an alert) and the text stays for fixing; a
  *   good line is handed to `onApply`, cleared, and what went where is announced politely.
- * - $mod+Z on an empty line calls `onUndoLast` (with text in the line it is the text field's own
- *   undo, as everywhere else).
+ * - $mod+Z on an empty line calls `onUndoLast`. With text in the line, $mod+Z (and redo) is the
+ *   text field's own, and is kept from the page's key bindings (the grid's undo of cell edits).
  * - ↑ on an empty line brings back the last line applied (to fix a slip after undoing it).
  * - Esc calls `onLeave`; the text stays for when the typist comes back.
  *
@@ -109,6 +119,9 @@ export function QuickEntryLine({
     } else if (text === '' && isUndoKey(event, platform)) {
       event.preventDefault();
       onUndoLast();
+    } else if (text !== '' && isTextUndoRedo(event, platform)) {
+      // The field undoes its own typing; the page's undo of cell edits must not hear this key.
+      event.stopPropagation();
     } else if (text === '' && event.key === 'ArrowUp' && lastLine.current !== '') {
       event.preventDefault();
       setText(lastLine.current);

@@ -85,13 +85,19 @@ describe('QuickEntryLine', () => {
 
   it('undoes the last entry with Ctrl+Z on an empty line; with text, Ctrl+Z is the field’s own', async () => {
     const { user, input, onUndoLast } = setup();
+    const pageKeys = vi.fn();
+    window.addEventListener('keydown', pageKeys);
     input.focus();
     await user.keyboard('7 .4');
-    await user.keyboard('{Control>}z{/Control}');
+    pageKeys.mockClear();
+    await user.keyboard('{Control>}z{/Control}{Control>}{Shift>}z{/Shift}{/Control}');
     expect(onUndoLast).not.toHaveBeenCalled();
+    // The page's own undo (of cell edits) does not hear the field's undo and redo.
+    expect(pageKeys.mock.calls.map(([e]) => (e as KeyboardEvent).key.toLowerCase())).not.toContain('z');
     await user.clear(input);
     await user.keyboard('{Control>}z{/Control}');
     expect(onUndoLast).toHaveBeenCalledTimes(1);
+    window.removeEventListener('keydown', pageKeys);
   });
 
   it('brings back the last line applied with ↑ on an empty line', async () => {
