@@ -10,7 +10,7 @@
  * Anything else is `invalid` with a message saying what to write instead. Parsing never throws.
  */
 
-import { columnByKey, isReadingKey, type ReadingKey } from '../schemas/columns.ts';
+import { columnByKey, readingKeys, type ReadingKey } from '../schemas/columns.ts';
 
 /** A cell's text read into a value. */
 export type ParsedCell =
@@ -82,9 +82,12 @@ const ANY_COLUMN: CellGrammar = {
 };
 
 const TEST_VOLTAGES = new Set([250, 500, 1000]);
-const NA_WORDS = new Set(['n/a', 'na', 'n.a.', 'n.a']);
-const PASS_WORDS = new Set(['✓', '✔', '☑', 'v', 'y', 'yes', 'ok', 'pass']);
-const FAIL_WORDS = new Set(['✗', '✘', '☒', 'x', 'no', 'fail']);
+/** The words of the grammar (lower case, plus the usual capitals so most cells need no lowering). */
+const WORDS = new Map<string, 'na' | 'lim' | 'pass' | 'fail'>();
+for (const w of ['n/a', 'na', 'n.a.', 'n.a', 'N/A', 'NA']) WORDS.set(w, 'na');
+for (const w of ['lim', 'LIM']) WORDS.set(w, 'lim');
+for (const w of ['✓', '✔', '☑', 'v', 'y', 'yes', 'ok', 'pass', 'OK']) WORDS.set(w, 'pass');
+for (const w of ['✗', '✘', '☒', 'x', 'no', 'fail', 'X']) WORDS.set(w, 'fail');
 
 const EMPTY: ParsedCell = { kind: 'empty' };
 const NA: ParsedCell = { kind: 'na' };
@@ -92,9 +95,11 @@ const LIM: ParsedCell = { kind: 'lim' };
 const PASS: ParsedCell = { kind: 'pass' };
 const FAIL: ParsedCell = { kind: 'fail' };
 
+const readingKeySet: ReadonlySet<string> = new Set(readingKeys);
+
 /** The grammar of a column key; unknown keys accept any reading without a range. */
 export function grammarFor(column: ReadingKey | string): CellGrammar {
-  return isReadingKey(column) ? cellGrammars[column] : ANY_COLUMN;
+  return readingKeySet.has(column) ? cellGrammars[column as ReadingKey] : ANY_COLUMN;
 }
 
 function invalid(message: string, problem: CellProblem): ParsedCell {
@@ -113,20 +118,27 @@ function rangeText(g: CellGrammar): string {
  * @param text the cell text exactly as typed.
  */
 export function parseCell(column: ReadingKey | string, text: string): ParsedCell {
-  const grammar = grammarFor(column);
+  return parseWithGrammar(grammarFor(column), text);
+}
+
+/** `parseCell` for a column whose grammar is already at hand (the checker's inner loop). */
+export function parseWithGrammar(grammar: CellGrammar, text: string): ParsedCell {
   if (typeof text !== 'string') return invalid('A reading must be text.', 'format');
-  const t = text.trim();
+  const length = text.length;
+  if (length === 0) return EMPTY;
+  // Trim only when there is white space at either end (most cells have none).
+  const t = text.charCodeAt(0) <= 32 || text.charCodeAt(length - 1) <= 32 ? text.trim() : text;
   if (t.length === 0) return EMPTY;
   const first = t.charCodeAt(0);
-  // Fast path: a number or ">N" (digits, point, '>', '≥').
+  // Fast path: a number or ">N" (digits, point, comma, '>', '≥').
   if ((first >= 48 && first <= 57) || first === 46 || first === 44 || first === 62 || first === 0x2265) {
     return parseNumber(grammar, t);
   }
-  const lower = t.toLowerCase();
-  if (NA_WORDS.has(lower)) return NA;
-  if (lower === 'lim') return LIM;
-  const isPass = PASS_WORDS.has(lower);
-  const isFail = !isPass && FAIL_WORDS.has(lower);
+  const word = WORDS.get(t) ?? WORDS.get(t.toLowerCase());
+  if (word === 'na') return NA;
+  if (word === 'lim') return LIM;
+  const isPass = word === 'pass';
+  const isFail = word === 'fail';
   if (grammar.mode === 'pass-fail' || grammar.mode === 'any') {
     if (isPass) return PASS;
     if (isFail) return FAIL;
@@ -194,6 +206,11 @@ function parseNumber(g: CellGrammar, t: string): ParsedCell {
   }
   const mantissa = start === 0 && i === n ? t : t.slice(start, i);
   const rest = i === n ? '' : t.slice(i).trim();
+  if (digits > 0 && commas === 0 && points <= 1 && rest === '' && g.mode === 'reading') {
+    // The common case: a plain reading, or ">N", inside the column's range.
+    const value = Number(mantissa);
+    if (value >= g.min && value <= g.max) return over ? { kind: 'over-range', value } : { kind: 'number', value };
+  }
 
   if (g.mode === 'pass-fail') {
     if (digits > 0) return invalid(`${g.label} takes a tick (✓) or a cross (✗), not a number.`, 'wrong-kind');

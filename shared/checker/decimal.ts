@@ -77,5 +77,31 @@ export function roundHalfUp(value: number, places: number): number {
 /** A number shown with exactly `places` decimals, rounded half-up (0.2185 → "0.22"). */
 export function formatFixed(value: number, places: number): string {
   if (!Number.isFinite(value)) return String(value);
-  return roundHalfUp(value, places).toFixed(places);
+  const text = String(value);
+  if (text.includes('e')) return roundHalfUp(value, places).toFixed(places);
+  // Round the printed decimal digits directly: cheaper than BigInt, and the same rule.
+  const negative = text.startsWith('-');
+  const unsigned = negative ? text.slice(1) : text;
+  const point = unsigned.indexOf('.');
+  const whole = point === -1 ? unsigned : unsigned.slice(0, point);
+  const fraction = point === -1 ? '' : unsigned.slice(point + 1);
+  let digits = whole + fraction.padEnd(places, '0').slice(0, places);
+  if (fraction.length > places && fraction.charCodeAt(places) >= 53 /* '5' */) digits = incrementDigits(digits);
+  const cut = digits.length - places;
+  const result = places === 0 ? digits : `${digits.slice(0, cut)}.${digits.slice(cut)}`;
+  return negative && /[1-9]/.test(result) ? `-${result}` : result;
+}
+
+/** Adds one to a string of decimal digits ("0999" → "1000", "99" → "100"). */
+function incrementDigits(digits: string): string {
+  const chars = digits.split('');
+  for (let i = chars.length - 1; i >= 0; i--) {
+    if (chars[i] === '9') {
+      chars[i] = '0';
+    } else {
+      chars[i] = String.fromCharCode(chars[i]!.charCodeAt(0) + 1);
+      return chars.join('');
+    }
+  }
+  return `1${chars.join('')}`;
 }

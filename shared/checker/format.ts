@@ -18,12 +18,24 @@ export function megohmText(value: number): string {
   return formatFixed(value, 1);
 }
 
+/**
+ * A reading in ohms with at least two decimals, as the trade writes them: 0.3 → "0.30",
+ * 0.455 → "0.455".
+ */
+export function ohmReading(value: number): string {
+  const text = String(value);
+  const point = text.indexOf('.');
+  if (text.includes('e')) return text;
+  if (point === -1) return `${text}.00`;
+  return text.length - point - 1 >= 2 ? text : `${text}0`;
+}
+
 /** A reading as the tester typed it, with its unit: "0.44 Ω", ">200 MΩ", "N/A". */
 export function readingText(cell: ParsedCell, unit: string | null): string {
   const u = unit ? ` ${unit}` : '';
   switch (cell.kind) {
     case 'number':
-      return `${cell.value}${u}`;
+      return `${unit === 'Ω' ? ohmReading(cell.value) : cell.value}${u}`;
     case 'over-range':
       return `>${cell.value}${u}`;
     case 'na':

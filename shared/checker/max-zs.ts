@@ -43,7 +43,22 @@ export type MaxZsResult =
     }
   | { ok: false; reason: string };
 
-const cache = new Map<string, MaxZsResult>();
+/**
+ * Results by standard text → type text → rating → time → U0. A board asks for the same few devices
+ * hundreds of times; nested maps answer without building a key string each time.
+ */
+type Level<K, V> = Map<K, V>;
+const cache: Level<string, Level<string, Level<number, Level<number, Level<number, MaxZsResult>>>>> = new Map();
+let cached = 0;
+
+function level<K, V>(map: Map<K, V>, key: K, make: () => V): V {
+  let value = map.get(key);
+  if (value === undefined) {
+    value = make();
+    map.set(key, value);
+  }
+  return value;
+}
 
 /**
  * Maximum Zs for a device, with its source; or, when the device is not in the tables, the reason in
@@ -58,12 +73,20 @@ const cache = new Map<string, MaxZsResult>();
  */
 export function maxZs(query: MaxZsQuery): MaxZsResult {
   const u0 = query.u0 ?? UK_U0;
-  const key = `${query.standard}\u0000${query.type ?? ''}\u0000${query.ratingA}\u0000${query.disconnectionTimeS}\u0000${u0}`;
-  let result = cache.get(key);
+  if (cached > 10_000) {
+    cache.clear();
+    cached = 0;
+  }
+  const byU0 = level(
+    level(level(level(cache, query.standard, () => new Map()), query.type ?? '', () => new Map()), query.ratingA, () => new Map()),
+    query.disconnectionTimeS,
+    () => new Map(),
+  );
+  let result = byU0.get(u0);
   if (result === undefined) {
     result = computeMaxZs(query, u0);
-    if (cache.size > 10_000) cache.clear();
-    cache.set(key, result);
+    byU0.set(u0, result);
+    cached++;
   }
   return result;
 }

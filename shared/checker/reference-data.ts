@@ -294,13 +294,15 @@ export interface RcdTimeLimit {
   minMs: number | null;
   /** Longest operating time allowed at IΔn, ms. */
   maxMs: number;
+  /** The upper limit as text, "≤ 300 ms". */
+  maxText: string;
   label: string;
   source: string;
 }
 
 export const rcdTimeLimits = {
-  general: { minMs: null, maxMs: 300, label: 'general (non-delay) type', source: RCD_TIME_SOURCE },
-  timeDelayed: { minMs: 130, maxMs: 500, label: 'time-delayed (S) type', source: RCD_TIME_SOURCE },
+  general: { minMs: null, maxMs: 300, maxText: '≤ 300 ms', label: 'general (non-delay) type', source: RCD_TIME_SOURCE },
+  timeDelayed: { minMs: 130, maxMs: 500, maxText: '≤ 500 ms', label: 'time-delayed (S) type', source: RCD_TIME_SOURCE },
 } as const satisfies Record<string, RcdTimeLimit>;
 
 /** At 5 × IΔn, where recorded (additional protection): ≤ 40 ms. */

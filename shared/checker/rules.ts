@@ -13,10 +13,10 @@
 import type { CheckCircuit, CheckInput } from '../schemas/check.ts';
 import { readingKeys, type ReadingKey } from '../schemas/columns.ts';
 import type { Finding, Severity } from '../schemas/findings.ts';
-import { cellGrammars, cellNumber, isRecorded, parseCell, plausibleRange, type ParsedCell } from './cell-grammar.ts';
+import { cellGrammars, cellNumber, isRecorded, parseWithGrammar, plausibleRange, type ParsedCell } from './cell-grammar.ts';
 import { formatFixed } from './decimal.ts';
 import { normaliseBreakerType, normaliseDeviceStandard } from './devices.ts';
-import { megohmText, ohmText, readingText } from './format.ts';
+import { megohmText, ohmReading, ohmText, readingText } from './format.ts';
 import { maxZs, rcdMaxZsTT, type MaxZsResult } from './max-zs.ts';
 import {
   BREAKING_CAPACITY_SOURCE,
@@ -133,6 +133,8 @@ interface CircuitFacts {
   zsComparable: boolean;
   /** Ring readings in exact textbook proportion; null when not a ring or a reading is missing. */
   ringTextbook: boolean | null;
+  /** The circuit number as compared for duplicates (trimmed, upper case, with its phase). */
+  numberKey: string;
 }
 
 function contextOf(input: CheckInput): BoardContext {
@@ -154,6 +156,10 @@ function finding(
 }
 
 const EMPTY_CELL: ParsedCell = { kind: 'empty' };
+// Module-level copies for the inner loop.
+const KEYS: readonly ReadingKey[] = [...readingKeys];
+const KEY_COUNT = KEYS.length;
+const GRAMMARS = KEYS.map((key) => cellGrammars[key]);
 
 function plainNumber(cell: ParsedCell): number | null {
   return cell.kind === 'number' ? cell.value : null;
@@ -176,13 +182,21 @@ function hundredths(value: number): number {
  * other than rings, R1+R2 may be given as R2 (measured with a long lead) instead.
  */
 export function requiredColumns(circuit: Pick<CheckCircuit, 'kind' | 'rcdType' | 'afdd'>): ReadingKey[] {
-  const columns: ReadingKey[] =
-    circuit.kind === 'ring'
-      ? ['ringR1', 'ringRn', 'ringR2', 'r1PlusR2', 'irTestVoltage', 'irLiveLive', 'irLiveEarth', 'polarity', 'zs']
-      : ['r1PlusR2', 'irTestVoltage', 'irLiveLive', 'irLiveEarth', 'polarity', 'zs'];
-  if (circuit.rcdType) columns.push('rcdTimeMs', 'rcdButton');
-  if (circuit.afdd === 'yes') columns.push('afddButton');
+  return [...requiredColumnsOf(circuit)];
+}
+
+const FINAL_COLUMNS: readonly ReadingKey[] = ['r1PlusR2', 'irTestVoltage', 'irLiveLive', 'irLiveEarth', 'polarity', 'zs'];
+const RING_COLUMNS: readonly ReadingKey[] = ['ringR1', 'ringRn', 'ringR2', ...FINAL_COLUMNS];
+/** The eight combinations of ring or not, RCD or not, AFDD or not, built once. */
+const requiredByCase: ReadonlyArray<readonly ReadingKey[]> = [0, 1, 2, 3, 4, 5, 6, 7].map((bits) => {
+  const columns = [...(bits & 1 ? RING_COLUMNS : FINAL_COLUMNS)];
+  if (bits & 2) columns.push('rcdTimeMs', 'rcdButton');
+  if (bits & 4) columns.push('afddButton');
   return columns;
+});
+
+function requiredColumnsOf(circuit: Pick<CheckCircuit, 'kind' | 'rcdType' | 'afdd'>): readonly ReadingKey[] {
+  return requiredByCase[(circuit.kind === 'ring' ? 1 : 0) | (circuit.rcdType ? 2 : 0) | (circuit.afdd === 'yes' ? 4 : 0)]!;
 }
 
 /** The Zs limit of a circuit, with how it was chosen. */
@@ -211,19 +225,47 @@ function zsLimitOf(c: CheckCircuit, ctx: BoardContext): ZsLimit {
 }
 
 /** Runs every rule that needs only one circuit and the board's details. */
+function kindText(c: CheckCircuit): string {
+  return c.kind === 'ring' ? 'a ring final' : c.kind === 'distribution' ? 'a distribution circuit' : `a ${c.kind}`;
+}
+
+/**
+ * Imported functions used in the inner loop, held locally: some module loaders (tsx's CommonJS
+ * interop among them) reach an imported binding through a getter on every call.
+ */
+const parse = parseWithGrammar;
+const recorded = isRecorded;
+const numberOf = cellNumber;
+
 function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   const out: Finding[] = [];
   const id = c.id;
-  const parsed = {} as Record<ReadingKey, ParsedCell>;
+  // Every key present from the start: one object shape for all circuits.
+  const parsed: Record<ReadingKey, ParsedCell> = {
+    ringR1: EMPTY_CELL,
+    ringRn: EMPTY_CELL,
+    ringR2: EMPTY_CELL,
+    r1PlusR2: EMPTY_CELL,
+    r2: EMPTY_CELL,
+    irTestVoltage: EMPTY_CELL,
+    irLiveLive: EMPTY_CELL,
+    irLiveEarth: EMPTY_CELL,
+    polarity: EMPTY_CELL,
+    zs: EMPTY_CELL,
+    rcdTimeMs: EMPTY_CELL,
+    rcdButton: EMPTY_CELL,
+    afddButton: EMPTY_CELL,
+  };
   const cells = c.cells;
   let naOrLim = 0;
   let taken = 0;
-  const naOrLimKeys: ReadingKey[] = [];
 
   // Cell grammar and LIM reasons.
-  for (const key of readingKeys) {
+  for (let k = 0; k < KEY_COUNT; k++) {
+    const key = KEYS[k]!;
     const cell = cells[key];
-    const p = cell === undefined ? EMPTY_CELL : parseCell(key, cell.text);
+    if (cell === undefined) continue;
+    const p = parse(GRAMMARS[k]!, cell.text);
     parsed[key] = p;
     switch (p.kind) {
       case 'invalid': {
@@ -234,14 +276,12 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
       }
       case 'lim':
         naOrLim++;
-        naOrLimKeys.push(key);
         if (!cell?.reason || cell.reason.trim() === '') {
           out.push(finding('lim-without-reason', id, [key], `LIM in ${labelOf(key)} without a reason: record why the test could not be done.`, null, LIM_SOURCE));
         }
         break;
       case 'na':
         naOrLim++;
-        naOrLimKeys.push(key);
         break;
       case 'empty':
         break;
@@ -251,31 +291,31 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   }
 
   // Completeness and N/A where a reading is required.
-  const missing: ReadingKey[] = [];
-  const kindText = c.kind === 'ring' ? 'a ring final' : c.kind === 'distribution' ? 'a distribution circuit' : `a ${c.kind}`;
-  for (const key of requiredColumns(c)) {
+  let missing: ReadingKey[] | null = null;
+  for (const key of requiredColumnsOf(c)) {
     if (key === 'rcdTimeMs') continue; // the RCD rule says it in its own words
     const p = parsed[key];
     if (key === 'r1PlusR2' && c.kind !== 'ring') {
       const alternative = parsed.r2;
-      if (isRecorded(p) || isRecorded(alternative) || p.kind === 'invalid' || alternative.kind === 'invalid') continue;
+      if (recorded(p) || recorded(alternative) || p.kind === 'invalid' || alternative.kind === 'invalid') continue;
       const na = (['r1PlusR2', 'r2'] as const).filter((k) => parsed[k].kind === 'na');
       if (na.length > 0) {
-        out.push(finding('na-where-required', id, [...na], `R1+R2 (or R2) is N/A, but ${kindText} needs its continuity measured (or LIM with a reason).`, null, REQUIRED_SOURCE));
+        out.push(finding('na-where-required', id, [...na], `R1+R2 (or R2) is N/A, but ${kindText(c)} needs its continuity measured (or LIM with a reason).`, null, REQUIRED_SOURCE));
       } else {
-        missing.push(key);
+        (missing ??= []).push(key);
       }
       continue;
     }
-    if (p.kind === 'empty') missing.push(key);
+    if (p.kind === 'empty') (missing ??= []).push(key);
     else if (p.kind === 'na') {
-      out.push(finding('na-where-required', id, [key], `${labelOf(key)} is N/A, but ${kindText} needs it (or LIM with a reason).`, null, REQUIRED_SOURCE));
+      out.push(finding('na-where-required', id, [key], `${labelOf(key)} is N/A, but ${kindText(c)} needs it (or LIM with a reason).`, null, REQUIRED_SOURCE));
     }
   }
-  if (missing.length > 0) {
+  if (missing !== null) {
     out.push(finding('cells-missing', id, missing, `Not recorded yet: ${missing.map(labelOf).join(', ')}.`, null, REQUIRED_SOURCE));
   }
   if (naOrLim >= 3 && taken === 0) {
+    const naOrLimKeys = KEYS.filter((key) => parsed[key].kind === 'na' || parsed[key].kind === 'lim');
     out.push(
       finding('circuit-untested', id, naOrLimKeys, 'Every reading on this circuit is N/A or LIM: test it, or say why in the remarks.', null, 'a circuit on the schedule is tested, or the reason it was not is given — common practice'),
     );
@@ -295,14 +335,16 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
     const expected = zdb + r1PlusR2!;
     const allowance = Math.max(ZS_SUM_ALLOWANCE_OHM, ZS_SUM_ALLOWANCE_FRACTION * expected);
     const difference = zs! - expected;
-    const sumText = `Zdb + R1+R2 = ${zdb} + ${r1PlusR2} = ${ohmText(expected)} Ω`;
-    const limit = `≈ ${ohmText(expected)} Ω (± ${formatFixed(allowance, 2)} Ω)`;
-    if (difference > allowance + EPS) {
-      out.push(finding('zs-above-expected', id, ['zs', 'r1PlusR2'], `Zs ${zs} Ω is well above ${sumText}: a poor joint or connection in the loop?`, limit, ZS_SUM_SOURCE));
-    } else if (-difference > allowance + EPS) {
-      out.push(
-        finding('zs-below-expected', id, ['zs', 'r1PlusR2'], `Zs ${zs} Ω is well below ${sumText}: parallel earth paths (bonding, pipework) are likely; the cpc itself is proven by R1+R2.`, limit, ZS_SUM_SOURCE),
-      );
+    if (Math.abs(difference) > allowance + EPS) {
+      const sumText = `Zdb + R1+R2 = ${ohmReading(zdb)} + ${ohmReading(r1PlusR2!)} = ${ohmText(expected)} Ω`;
+      const limit = `≈ ${ohmText(expected)} Ω (± ${formatFixed(allowance, 2)} Ω)`;
+      if (difference > 0) {
+        out.push(finding('zs-above-expected', id, ['zs', 'r1PlusR2'], `Zs ${ohmReading(zs!)} Ω is well above ${sumText}: a poor joint or connection in the loop?`, limit, ZS_SUM_SOURCE));
+      } else {
+        out.push(
+          finding('zs-below-expected', id, ['zs', 'r1PlusR2'], `Zs ${ohmReading(zs!)} Ω is well below ${sumText}: parallel earth paths (bonding, pipework) are likely; the cpc itself is proven by R1+R2.`, limit, ZS_SUM_SOURCE),
+        );
+      }
     }
     zsIsZdbPlusR1R2 = hundredths(zs!) - hundredths(zdb) === hundredths(r1PlusR2!);
   }
@@ -335,32 +377,33 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   if (c.kind === 'ring') ringTextbook = ringRules(c, ringR1, ringRn, ringR2, r1PlusR2, out);
 
   out.sort(compareFindings);
-  return { circuit: c, parsed, local: out, ringR1, ringRn, ringR2, r1PlusR2, zs, zsIsZdbPlusR1R2, zsComparable, ringTextbook };
+  const numberKey = c.phase === null ? c.number.trim().toUpperCase() : `${c.number.trim().toUpperCase()}|${c.phase}`;
+  return { circuit: c, parsed, local: out, ringR1, ringRn, ringR2, r1PlusR2, zs, zsIsZdbPlusR1R2, zsComparable, ringTextbook, numberKey };
 }
 
 function zsRules(c: CheckCircuit, ctx: BoardContext, parsed: Readonly<Record<ReadingKey, ParsedCell>>, out: Finding[]): void {
   const cell = parsed.zs;
-  const value = cellNumber(cell);
+  const value = numberOf(cell);
   if (value === null) return;
   const { result, timeS, timeAssumed, rcdBased } = zsLimitOf(c, ctx);
-  const shown = show(parsed, 'zs');
   if (!result.ok) {
-    out.push(finding('zs-limit-unknown', c.id, ['zs', 'deviceStandard'], `Zs ${shown} not checked: ${lowerFirst(result.reason)}`, null, null));
+    out.push(finding('zs-limit-unknown', c.id, ['zs', 'deviceStandard'], `Zs ${show(parsed, 'zs')} not checked: ${lowerFirst(result.reason)}`, null, null));
     return;
   }
   const limit = result.limitOhm;
+  // ">N" is more than N: over the limit for certain only when N already reaches it.
+  const over = cell.kind === 'number' ? value > limit + EPS : value >= limit - EPS;
+  const ruleLimit = limit * ZS_RULE_OF_THUMB_FACTOR;
+  const overRule = !rcdBased && (cell.kind === 'number' ? value > ruleLimit + EPS : value >= ruleLimit - EPS);
+  if (!over && !overRule) return;
+  const shown = show(parsed, 'zs');
   const timeText = timeS === null ? '' : ` at ${timeS} s`;
   const assumedNote = timeAssumed ? ` (${timeS} s assumed from ${TABLE_41_1_SOURCE})` : '';
   const source = timeAssumed ? `${result.source}; ${timeS} s from ${TABLE_41_1_SOURCE}` : result.source;
-  // ">N" is more than N: over the limit for certain only when N already reaches it.
-  const over = cell.kind === 'number' ? value > limit + EPS : value >= limit - EPS;
   if (over) {
     out.push(finding('zs-over-max', c.id, ['zs'], `Zs ${shown} is over the maximum ${ohmText(limit)} Ω for a ${result.device}${timeText}${assumedNote}.`, `≤ ${ohmText(limit)} Ω`, source));
     return;
   }
-  if (rcdBased) return;
-  const ruleLimit = limit * ZS_RULE_OF_THUMB_FACTOR;
-  const overRule = cell.kind === 'number' ? value > ruleLimit + EPS : value >= ruleLimit - EPS;
   if (overRule) {
     out.push(
       finding(
@@ -409,31 +452,35 @@ function insulationRules(id: number, parsed: Readonly<Record<ReadingKey, ParsedC
   }
 }
 
+function rcdDescription(c: CheckCircuit): string {
+  return `type ${c.rcdType}${c.rcdRatedResidualMa !== null ? `, ${c.rcdRatedResidualMa} mA` : ''}`;
+}
+
 function rcdRules(c: CheckCircuit, parsed: Readonly<Record<ReadingKey, ParsedCell>>, out: Finding[]): void {
   const id = c.id;
   const time = parsed.rcdTimeMs;
   if (c.rcdType) {
     const limits = rcdTimeLimit(c.rcdType);
-    const limitText = limits.minMs === null ? `≤ ${limits.maxMs} ms` : `${limits.minMs}–${limits.maxMs} ms`;
-    const rcdText = `type ${c.rcdType}${c.rcdRatedResidualMa !== null ? `, ${c.rcdRatedResidualMa} mA` : ''}`;
+    const limitText = limits.minMs === null ? limits.maxText : `${limits.minMs}–${limits.maxMs} ms`;
+
     if (time.kind === 'empty' || time.kind === 'na') {
       out.push(
         finding(
           'rcd-time-missing',
           id,
           ['rcdTimeMs'],
-          `An RCD (${rcdText}) is fitted but its operating time is ${time.kind === 'na' ? 'N/A' : 'not recorded'}: test it at IΔn (or LIM with a reason).`,
+          `An RCD (${rcdDescription(c)}) is fitted but its operating time is ${time.kind === 'na' ? 'N/A' : 'not recorded'}: test it at IΔn (or LIM with a reason).`,
           limitText,
           limits.source,
         ),
       );
     }
-    const value = cellNumber(time);
+    const value = numberOf(time);
     if (value !== null) {
       const shown = show(parsed, 'rcdTimeMs');
       const over = time.kind === 'number' ? value > limits.maxMs + EPS : value >= limits.maxMs - EPS;
       if (over) {
-        out.push(finding('rcd-time-over-limit', id, ['rcdTimeMs'], `RCD time ${shown} is over ${limits.maxMs} ms for a ${limits.label} (${rcdText}).`, limitText, limits.source));
+        out.push(finding('rcd-time-over-limit', id, ['rcdTimeMs'], `RCD time ${shown} is over ${limits.maxMs} ms for a ${limits.label} (${rcdDescription(c)}).`, limitText, limits.source));
       } else if (limits.minMs !== null && time.kind === 'number' && value < limits.minMs - EPS) {
         out.push(
           finding(
@@ -450,7 +497,7 @@ function rcdRules(c: CheckCircuit, parsed: Readonly<Record<ReadingKey, ParsedCel
     if (parsed.rcdButton.kind === 'fail') {
       out.push(finding('rcd-button-fail', id, ['rcdButton'], 'The RCD test button did not operate the RCD (✗).', '✓ (operates)', limits.source));
     }
-  } else if (cellNumber(time) !== null) {
+  } else if (numberOf(time) !== null) {
     out.push(finding('rcd-type-missing', id, ['rcdTimeMs', 'rcdType'], 'An RCD time is recorded but no RCD type: record the type and IΔn so the time can be checked.', null, null));
   }
   if (parsed.afddButton.kind === 'fail') {
@@ -467,7 +514,7 @@ function ringRules(c: CheckCircuit, r1: number | null, rn: number | null, r2: nu
         'ring-r1-rn-mismatch',
         id,
         ['ringR1', 'ringRn'],
-        `r1 ${r1} Ω and rn ${rn} Ω differ by ${formatFixed(Math.abs(r1 - rn), 2)} Ω: a loose or broken conductor, or the wrong cable ends.`,
+        `r1 ${ohmReading(r1)} Ω and rn ${ohmReading(rn)} Ω differ by ${formatFixed(Math.abs(r1 - rn), 2)} Ω: a loose or broken conductor, or the wrong cable ends.`,
         `≤ ${RING_R1_RN_TOLERANCE_OHM} Ω apart`,
         RING_R1_RN_SOURCE,
       ),
@@ -490,7 +537,7 @@ function ringRules(c: CheckCircuit, r1: number | null, rn: number | null, r2: nu
           'ring-r2-ratio',
           id,
           ['ringR1', 'ringR2'],
-          `r2/r1 = ${formatFixed(r2 / r1, 2)} (r1 ${r1} Ω, r2 ${r2} Ω), but ${sizes} cable gives ${formatFixed(resistanceRatio, 2)}: wrong pairing of ends, or a poor joint?`,
+          `r2/r1 = ${formatFixed(r2 / r1, 2)} (r1 ${ohmReading(r1)} Ω, r2 ${ohmReading(r2)} Ω), but ${sizes} cable gives ${formatFixed(resistanceRatio, 2)}: wrong pairing of ends, or a poor joint?`,
           `r2 ≈ ${formatFixed(resistanceRatio, 2)} × r1 = ${formatFixed(expectedR2, 2)} Ω (± 10 %)`,
           `${IEC_60228_SOURCE}: ${cpcMilliohm} / ${liveMilliohm} = ${formatFixed(resistanceRatio, 2)}; ± 10 % — common practice`,
         ),
@@ -501,11 +548,10 @@ function ringRules(c: CheckCircuit, r1: number | null, rn: number | null, r2: nu
   if (r1 !== null && r2 !== null && r1PlusR2 !== null && r1 + r2 > 0) {
     const quarter = (r1 + r2) / 4;
     const ends = (r1 * r2) / (r1 + r2);
-    const limit = `≈ ${formatFixed(quarter, 2)} Ω ((r1+r2)/4), ± ${RING_R1R2_ALLOWANCE_OHM} Ω`;
     const source = 'formula: cross-connected ring, (r1+r2)/4 at mid-ring, r1·r2/(r1+r2) at the ends; ± 0.05 Ω — common practice';
     if (r1PlusR2 > quarter + RING_R1R2_ALLOWANCE_OHM + EPS) {
       out.push(
-        finding('ring-r1r2-inconsistent', id, ['r1PlusR2', 'ringR1', 'ringR2'], `R1+R2 ${r1PlusR2} Ω is above (r1+r2)/4 = ${formatFixed(quarter, 2)} Ω: a spur, a loose termination, or a reading at the wrong point.`, limit, source),
+        finding('ring-r1r2-inconsistent', id, ['r1PlusR2', 'ringR1', 'ringR2'], `R1+R2 ${ohmReading(r1PlusR2)} Ω is above (r1+r2)/4 = ${formatFixed(quarter, 2)} Ω: a spur, a loose termination, or a reading at the wrong point.`, quarterLimit(quarter), source),
       );
     } else if (r1PlusR2 < ends - RING_R1R2_ALLOWANCE_OHM - EPS) {
       out.push(
@@ -513,8 +559,8 @@ function ringRules(c: CheckCircuit, r1: number | null, rn: number | null, r2: nu
           'ring-r1r2-inconsistent',
           id,
           ['r1PlusR2', 'ringR1', 'ringR2'],
-          `R1+R2 ${r1PlusR2} Ω is below what any socket of this ring can read (${formatFixed(ends, 2)}–${formatFixed(quarter, 2)} Ω): an interconnection, or the ends linked wrongly.`,
-          limit,
+          `R1+R2 ${ohmReading(r1PlusR2)} Ω is below what any socket of this ring can read (${formatFixed(ends, 2)}–${formatFixed(quarter, 2)} Ω): an interconnection, or the ends linked wrongly.`,
+          quarterLimit(quarter),
           source,
         ),
       );
@@ -531,7 +577,7 @@ function ringRules(c: CheckCircuit, r1: number | null, rn: number | null, r2: nu
             'ring-length-beyond-guidance',
             id,
             ['ringR1'],
-            `r1 ${r1} Ω means about ${Math.round(lengthM)} m of 2.5 mm² cable, beyond the ~${ringLengthGuidance.maxLengthM} m guidance for 2.5/1.5 on a B32: check Zs and voltage drop, or the ends measured.`,
+            `r1 ${ohmReading(r1)} Ω means about ${Math.round(lengthM)} m of 2.5 mm² cable, beyond the ~${ringLengthGuidance.maxLengthM} m guidance for 2.5/1.5 on a B32: check Zs and voltage drop, or the ends measured.`,
             `≤ ${ringLengthGuidance.maxLengthM} m (r1 ≤ ${formatFixed((ringLengthGuidance.maxLengthM * lineResistance.milliohmPerMetre) / 1000, 2)} Ω)`,
             `${ringLengthGuidance.source}; length = r1 ÷ ${lineResistance.milliohmPerMetre} mΩ/m (${IEC_60228_SOURCE})`,
           ),
@@ -547,6 +593,10 @@ function ringRules(c: CheckCircuit, r1: number | null, rn: number | null, r2: nu
   const ratio = resistanceRatio ?? 12.1 / 7.41;
   const r2Textbook = Math.abs(r2 - r1 * areaRatio) <= 0.005 + EPS || Math.abs(r2 - r1 * ratio) <= 0.005 + EPS;
   return hundredths(rn) === hundredths(r1) && r2Textbook && Math.abs(r1PlusR2 - (r1 + r2) / 4) <= 0.005 + EPS;
+}
+
+function quarterLimit(quarter: number): string {
+  return `≈ ${formatFixed(quarter, 2)} Ω ((r1+r2)/4), ± ${RING_R1R2_ALLOWANCE_OHM} Ω`;
 }
 
 function isGuidanceDevice(c: CheckCircuit): boolean {
@@ -596,17 +646,22 @@ function crossCircuitFindings(input: CheckInput, facts: readonly CircuitFacts[])
   }
 
   // Duplicate circuit numbers (per phase on three-phase boards).
-  const byNumber = new Map<string, CircuitFacts[]>();
+  const byNumber = new Map<string, CircuitFacts>();
+  const duplicates = new Map<string, CircuitFacts[]>();
   const byId = new Map<number, CircuitFacts | 'ambiguous'>();
   for (const f of facts) {
-    const key = `${f.circuit.number.trim().toUpperCase()}|${f.circuit.phase ?? ''}`;
-    const list = byNumber.get(key);
-    if (list) list.push(f);
-    else byNumber.set(key, [f]);
-    byId.set(f.circuit.id, byId.has(f.circuit.id) ? 'ambiguous' : f);
+    const first = byNumber.get(f.numberKey);
+    if (first === undefined) byNumber.set(f.numberKey, f);
+    else {
+      const list = duplicates.get(f.numberKey);
+      if (list) list.push(f);
+      else duplicates.set(f.numberKey, [first, f]);
+    }
+    const id = f.circuit.id;
+    const known = byId.get(id);
+    byId.set(id, known === undefined ? f : 'ambiguous');
   }
-  for (const list of byNumber.values()) {
-    if (list.length < 2) continue;
+  for (const list of duplicates.values()) {
     for (const f of list) {
       out.push(
         finding('circuit-number-duplicate', f.circuit.id, [], `Circuit number ${f.circuit.number.trim()}${f.circuit.phase ? ` (${f.circuit.phase})` : ''} is used by ${list.length} circuits on this board.`, null, null),
@@ -702,8 +757,8 @@ function spurRules(spurFacts: CircuitFacts, ring: CircuitFacts, out: Finding[]):
         'spur-below-ring',
         spur.id,
         ['r1PlusR2'],
-        `Spur R1+R2 ${measured} Ω is below its ring's ${ringRecorded} Ω (${ringName}): a spur adds to the ring's value, so one of them is wrong.`,
-        `≥ ${formatFixed(ringRecorded - SPUR_ALLOWANCE_OHM, 2)} Ω (ring ${ringRecorded} Ω less ${SPUR_ALLOWANCE_OHM} Ω)`,
+        `Spur R1+R2 ${ohmReading(measured)} Ω is below its ring's ${ohmReading(ringRecorded)} Ω (${ringName}): a spur adds to the ring's value, so one of them is wrong.`,
+        `≥ ${formatFixed(ringRecorded - SPUR_ALLOWANCE_OHM, 2)} Ω (ring ${ohmReading(ringRecorded)} Ω less ${SPUR_ALLOWANCE_OHM} Ω)`,
         'spur in series with the ring: R1+R2 = ring value at its origin + spur cable — common practice',
       ),
     );
@@ -714,28 +769,33 @@ function spurRules(spurFacts: CircuitFacts, ring: CircuitFacts, out: Finding[]):
   if (!perMetre.ok) return;
   const x = spurOriginFraction(spur.spurOriginPoint, ring.circuit.points);
   let ringValue: number | null = null;
-  let ringValueText = '';
+  let basis: 'origin' | 'recorded' | 'quarter' = 'recorded';
   if (x !== null && ring.ringR1 !== null && ring.ringR2 !== null && ring.ringR1 + ring.ringR2 > 0) {
     ringValue = correctRingReading(ring.ringR1, ring.ringR2, x);
-    ringValueText = `ring ${formatFixed(ringValue, 2)} Ω at its origin (${spur.spurOriginPoint!.trim()}, from r1 and r2)`;
+    basis = 'origin';
   } else if (ringRecorded !== null) {
     ringValue = ringRecorded;
-    ringValueText = `ring ${ringRecorded} Ω (its R1+R2)`;
   } else if (ring.ringR1 !== null && ring.ringR2 !== null) {
     ringValue = (ring.ringR1 + ring.ringR2) / 4;
-    ringValueText = `ring ${formatFixed(ringValue, 2)} Ω ((r1+r2)/4)`;
+    basis = 'quarter';
   }
   if (ringValue === null) return;
   const cableOhm = (spur.spurLengthM * perMetre.milliohmPerMetre) / 1000;
   const expected = ringValue + cableOhm;
   const allowance = Math.max(SPUR_ALLOWANCE_OHM, SPUR_ALLOWANCE_FRACTION * expected);
   if (Math.abs(measured - expected) > allowance + EPS) {
+    const ringValueText =
+      basis === 'origin'
+        ? `ring ${formatFixed(ringValue, 2)} Ω at its origin (${spur.spurOriginPoint!.trim()}, from r1 and r2)`
+        : basis === 'recorded'
+          ? `ring ${ohmReading(ringValue)} Ω (its R1+R2)`
+          : `ring ${formatFixed(ringValue, 2)} Ω ((r1+r2)/4)`;
     out.push(
       finding(
         'spur-r1r2-unexpected',
         spur.id,
         ['r1PlusR2'],
-        `Spur R1+R2 ${measured} Ω; expected about ${formatFixed(expected, 2)} Ω: ${ringValueText} + ${spur.spurLengthM} m of ${spur.liveCsaMm2}/${spur.cpcCsaMm2} at ${perMetre.milliohmPerMetre} mΩ/m.`,
+        `Spur R1+R2 ${ohmReading(measured)} Ω; expected about ${formatFixed(expected, 2)} Ω: ${ringValueText} + ${spur.spurLengthM} m of ${spur.liveCsaMm2}/${spur.cpcCsaMm2} at ${perMetre.milliohmPerMetre} mΩ/m.`,
         `≈ ${formatFixed(expected, 2)} Ω (± ${formatFixed(allowance, 2)} Ω)`,
         `ring value at the origin + length × R1+R2 per metre (${IEC_60228_SOURCE}); allowance ± the larger of 0.05 Ω and 10 % — common practice`,
       ),
@@ -768,6 +828,7 @@ function assemble(facts: readonly CircuitFacts[], cross: readonly Finding[]): Fi
   const byCircuit = new Map<number, Finding[][]>();
   const boardWide: Finding[] = [];
   for (const f of facts) {
+    if (f.local.length === 0) continue;
     const lists = byCircuit.get(f.circuit.id);
     if (lists) lists.push(f.local as Finding[]);
     else byCircuit.set(f.circuit.id, [f.local as Finding[]]);
@@ -790,6 +851,7 @@ function assemble(facts: readonly CircuitFacts[], cross: readonly Finding[]): Fi
       for (const x of lists[0]!) out.push(x);
       continue;
     }
+    // Several lists for one id: a circuit with findings across circuits, or an id used twice.
     const merged = lists.flat().sort(compareFindings);
     for (const x of merged) out.push(x);
   }

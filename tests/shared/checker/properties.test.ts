@@ -78,7 +78,7 @@ describe('checkBoard properties', () => {
       }),
       { numRuns: 300 },
     );
-  });
+  }, 30_000);
 
   it('never throws, and every finding is well formed', () => {
     fc.assert(
@@ -91,7 +91,7 @@ describe('checkBoard properties', () => {
       }),
       { numRuns: 300 },
     );
-  });
+  }, 30_000);
 
   it('the caching checker gives the same findings as checkBoard, before and after an edit', () => {
     fc.assert(
@@ -108,5 +108,5 @@ describe('checkBoard properties', () => {
       }),
       { numRuns: 200 },
     );
-  });
+  }, 30_000);
 });

@@ -121,6 +121,8 @@ const uniformRingArbitrary = fc
 
 const TOLERANCE = 1e-9;
 const runs = { numRuns: 60 };
+/** Each property solves a few thousand small networks; allow for a busy machine. */
+const SLOW = 30_000;
 
 describe('ring readings against the network solved by nodal analysis (mathjs lusolve)', () => {
   it('correct ring (opposite ends linked), random segments: matches ringReadingAt at every socket', () => {
@@ -135,7 +137,7 @@ describe('ring readings against the network solved by nodal analysis (mathjs lus
       }),
       runs,
     );
-  });
+  }, SLOW);
 
   it('correct ring in one cable: matches the closed form [r1·r2 + x(1−x)(r1−r2)²]/(r1+r2), peak (r1+r2)/4', () => {
     fc.assert(
@@ -151,7 +153,7 @@ describe('ring readings against the network solved by nodal analysis (mathjs lus
       }),
       runs,
     );
-  });
+  }, SLOW);
 
   it('same ends linked, random segments: matches ringReadingAt with linking "same-ends"; in one cable x(1−x)(r1+r2)', () => {
     fc.assert(
@@ -168,7 +170,7 @@ describe('ring readings against the network solved by nodal analysis (mathjs lus
       }),
       runs,
     );
-  });
+  }, SLOW);
 
   it('an interconnection (one or two bridges, line to line and cpc to cpc): matches bridgedRingReadingAt', () => {
     const bridgeArbitrary = fc.record({
@@ -204,7 +206,7 @@ describe('ring readings against the network solved by nodal analysis (mathjs lus
       ),
       runs,
     );
-  });
+  }, SLOW);
 
   it('a spur from a socket: ring value at its origin + spur line + spur cpc (series)', () => {
     fc.assert(
@@ -219,7 +221,7 @@ describe('ring readings against the network solved by nodal analysis (mathjs lus
       }),
       runs,
     );
-  });
+  }, SLOW);
 });
 
 describe('ringProfile on readings taken from the solved network', () => {

@@ -23,7 +23,7 @@ const cases: Case[] = [
     input: board([radial({ cells: { ...cleanRadialCells, r1PlusR2: '2.00', zs: '2.40' } })]),
     codes: ['zs-over-max'],
     // formula 0.95 × 230 / (5 × 20) = 2.185 → 2.19, BS 7671:2018 Table 41.3
-    expect: { code: 'zs-over-max', severity: 'error', circuitId: 1, columns: ['zs'], limit: '≤ 2.19 Ω', sourceIncludes: 'BS 7671:2018 Table 41.3', messageIncludes: 'Zs 2.4 Ω' },
+    expect: { code: 'zs-over-max', severity: 'error', circuitId: 1, columns: ['zs'], limit: '≤ 2.19 Ω', sourceIncludes: 'BS 7671:2018 Table 41.3', messageIncludes: 'Zs 2.40 Ω' },
   },
   {
     name: 'Zs over 0.8 × the maximum for a B20',
