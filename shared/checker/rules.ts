@@ -550,8 +550,14 @@ function ringRules(c: CheckCircuit, r1: number | null, rn: number | null, r2: nu
     const ends = (r1 * r2) / (r1 + r2);
     const source = 'formula: cross-connected ring, (r1+r2)/4 at mid-ring, r1·r2/(r1+r2) at the ends; ± 0.05 Ω — common practice';
     if (r1PlusR2 > quarter + RING_R1R2_ALLOWANCE_OHM + EPS) {
+      // About (r1+r2)/2 — twice the sound value — is what a wrongly linked cross-connection gives.
+      const half = (r1 + r2) / 2;
+      const why =
+        Math.abs(r1PlusR2 - half) <= RING_R1R2_ALLOWANCE_OHM + EPS
+          ? `about (r1+r2)/2 = ${formatFixed(half, 2)} Ω, twice what a correctly cross-connected ring reads: were the ends linked wrongly at step 3?`
+          : 'a spur, a loose termination, or a reading at the wrong point.';
       out.push(
-        finding('ring-r1r2-inconsistent', id, ['r1PlusR2', 'ringR1', 'ringR2'], `R1+R2 ${ohmReading(r1PlusR2)} Ω is above (r1+r2)/4 = ${formatFixed(quarter, 2)} Ω: a spur, a loose termination, or a reading at the wrong point.`, quarterLimit(quarter), source),
+        finding('ring-r1r2-inconsistent', id, ['r1PlusR2', 'ringR1', 'ringR2'], `R1+R2 ${ohmReading(r1PlusR2)} Ω is above (r1+r2)/4 = ${formatFixed(quarter, 2)} Ω: ${why}`, quarterLimit(quarter), source),
       );
     } else if (r1PlusR2 < ends - RING_R1R2_ALLOWANCE_OHM - EPS) {
       out.push(
