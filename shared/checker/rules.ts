@@ -224,7 +224,6 @@ function zsLimitOf(c: CheckCircuit, ctx: BoardContext): ZsLimit {
   return { result, timeS, timeAssumed, rcdBased: false };
 }
 
-/** Runs every rule that needs only one circuit and the board's details. */
 function kindText(c: CheckCircuit): string {
   return c.kind === 'ring' ? 'a ring final' : c.kind === 'distribution' ? 'a distribution circuit' : `a ${c.kind}`;
 }
@@ -237,6 +236,7 @@ const parse = parseWithGrammar;
 const recorded = isRecorded;
 const numberOf = cellNumber;
 
+/** Runs every rule that needs only one circuit and the board's details. */
 function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   const out: Finding[] = [];
   const id = c.id;
@@ -276,7 +276,7 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
       }
       case 'lim':
         naOrLim++;
-        if (!cell?.reason || cell.reason.trim() === '') {
+        if (!cell.reason || cell.reason.trim() === '') {
           out.push(finding('lim-without-reason', id, [key], `LIM in ${labelOf(key)} without a reason: record why the test could not be done.`, null, LIM_SOURCE));
         }
         break;
