@@ -91,6 +91,7 @@ const cases: Case[] = [
     name: 'Zs well below Zdb + R1+R2',
     input: board([radial({ cells: { ...cleanRadialCells, zs: '0.40' } })]),
     codes: ['zs-below-expected'],
+    // 0.35 + 0.30 = 0.65 Ω, allowance 0.10 Ω — common practice
     expect: { code: 'zs-below-expected', severity: 'note', limit: '≈ 0.65 Ω (± 0.10 Ω)', messageIncludes: 'parallel earth paths' },
   },
   {
@@ -199,6 +200,7 @@ const cases: Case[] = [
     name: 'RCD over range (did not trip in the test)',
     input: board([radial({ cells: { ...cleanRadialCells, rcdTimeMs: '>300' } })]),
     codes: ['rcd-time-over-limit'],
+    // BS EN 61008-1 / 61009-1; BS 7671:2018+A2 643.7: ≤ 300 ms
     expect: { code: 'rcd-time-over-limit', limit: '≤ 300 ms', messageIncludes: '>300 ms' },
   },
   {
@@ -212,6 +214,7 @@ const cases: Case[] = [
     name: 'time-delayed RCD faster than 130 ms',
     input: board([radial({ rcdType: 'S-AC', rcdRatedResidualMa: 100, cells: { ...cleanRadialCells, rcdTimeMs: '40' } })]),
     codes: ['rcd-time-below-delay'],
+    // BS EN 61008-1 / 61009-1: time-delayed S type 130–500 ms
     expect: { code: 'rcd-time-below-delay', severity: 'warning', limit: '130–500 ms' },
   },
   {
