@@ -98,6 +98,9 @@ export class BoardSyncEngine {
   private snapshot: BoardSyncSnapshot;
 
   private running = false;
+  /** Set by `release`: stop once nothing sendable is left. */
+  private stopWhenSent = false;
+  private onStopped: (() => void) | null = null;
   /** Bumped by every start and stop, so answers to requests of an earlier run are ignored. */
   private run = 0;
   private sending = false;
@@ -194,7 +197,12 @@ export class BoardSyncEngine {
 
   /** Starts sending the outbox (including edits kept from an earlier visit) and polling the feed. */
   start(): void {
-    if (this.running) return;
+    this.stopWhenSent = false;
+    this.onStopped = null;
+    if (this.running) {
+      this.schedulePoll(0);
+      return;
+    }
     this.running = true;
     this.run += 1;
     this.sending = false;
@@ -205,8 +213,28 @@ export class BoardSyncEngine {
     this.pump();
   }
 
+  /**
+   * Nobody shows the board any more: stop polling, but keep sending until the outbox holds nothing
+   * sendable, so leaving the console does not leave readings waiting for the board's next visit.
+   * `onStopped` is called once the engine has stopped.
+   */
+  release(onStopped: () => void): void {
+    this.onStopped = onStopped;
+    if (!this.running || !this.entries.some((e) => !e.conflict)) {
+      this.stop();
+      return;
+    }
+    this.stopWhenSent = true;
+    if (this.pollTimer) clearTimeout(this.pollTimer);
+    this.pollTimer = null;
+  }
+
   /** Stops all timers and listeners; answers still on their way are ignored. The outbox stays stored. */
   stop(): void {
+    const onStopped = this.onStopped;
+    this.onStopped = null;
+    this.stopWhenSent = false;
+    onStopped?.();
     if (!this.running) return;
     this.running = false;
     this.run += 1;
@@ -336,6 +364,7 @@ export class BoardSyncEngine {
     const entry = this.entries.find((e) => !e.conflict);
     if (!entry) {
       this.emit();
+      if (this.stopWhenSent) this.stop();
       return;
     }
     this.sending = true;
@@ -508,7 +537,7 @@ export class BoardSyncEngine {
   }
 
   private schedulePoll(wait: number): void {
-    if (!this.running || this.polling) return;
+    if (!this.running || this.polling || this.stopWhenSent) return;
     if (this.pollTimer) clearTimeout(this.pollTimer);
     this.pollTimer = setTimeout(() => {
       this.pollTimer = null;

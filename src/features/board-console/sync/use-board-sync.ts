@@ -9,22 +9,27 @@ import type { BoardSync } from './types.ts';
 
 /**
  * One engine per board and QueryClient, however many components ask for it: two engines would
- * send the same stored outbox twice. Components hold it while mounted; the last one to let go
- * stops it after the current task, so a StrictMode remount keeps the same engine.
+ * send the same stored outbox twice. Components hold it while mounted; when the last one lets go
+ * (after the current task, so a StrictMode remount keeps the same engine), the engine stops
+ * polling, sends what is still waiting, and then leaves the registry.
  */
 const registry = new WeakMap<QueryClient, Map<number, { engine: BoardSyncEngine; holders: number }>>();
 
-function engineFor(queryClient: QueryClient, boardId: number): BoardSyncEngine {
+function slotsOf(queryClient: QueryClient) {
   let boards = registry.get(queryClient);
   if (!boards) registry.set(queryClient, (boards = new Map()));
+  return boards;
+}
+
+function engineFor(queryClient: QueryClient, boardId: number): BoardSyncEngine {
+  const boards = slotsOf(queryClient);
   let slot = boards.get(boardId);
   if (!slot) boards.set(boardId, (slot = { engine: new BoardSyncEngine(queryClient, boardId), holders: 0 }));
   return slot.engine;
 }
 
 function hold(queryClient: QueryClient, engine: BoardSyncEngine): () => void {
-  let boards = registry.get(queryClient);
-  if (!boards) registry.set(queryClient, (boards = new Map()));
+  const boards = slotsOf(queryClient);
   let slot = boards.get(engine.boardId);
   if (!slot || slot.engine !== engine) boards.set(engine.boardId, (slot = { engine, holders: 0 }));
   const held = slot;
@@ -34,10 +39,23 @@ function hold(queryClient: QueryClient, engine: BoardSyncEngine): () => void {
     held.holders -= 1;
     setTimeout(() => {
       if (held.holders > 0) return;
-      engine.stop();
-      if (boards.get(engine.boardId) === held) boards.delete(engine.boardId);
+      engine.release(() => {
+        if (held.holders === 0 && boards.get(engine.boardId) === held) boards.delete(engine.boardId);
+      });
     }, 0);
   };
+}
+
+/**
+ * Stops every board engine of a QueryClient at once, sending nothing more: what waits stays stored
+ * for the board's next visit. For sign-out (nothing more goes out under the ending session, even
+ * an outbox still draining after the console was left); call it once the console has unmounted.
+ */
+export function stopBoardSync(queryClient: QueryClient): void {
+  const boards = registry.get(queryClient);
+  if (!boards) return;
+  registry.delete(queryClient);
+  for (const { engine } of boards.values()) engine.stop();
 }
 
 /**

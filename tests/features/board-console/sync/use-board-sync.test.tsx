@@ -4,7 +4,7 @@ import type { ReactNode } from 'react';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { outboxStorageKey } from '../../../../src/features/board-console/sync/outbox-storage.ts';
 import type { BoardSync } from '../../../../src/features/board-console/sync/types.ts';
-import { useBoardSync } from '../../../../src/features/board-console/sync/use-board-sync.ts';
+import { stopBoardSync, useBoardSync } from '../../../../src/features/board-console/sync/use-board-sync.ts';
 import { startSyncServer, type SyncServer } from './sync-server.ts';
 
 function newQueryClient() {
@@ -121,6 +121,29 @@ describe('useBoardSync: the outbox', () => {
   });
 });
 
+describe('useBoardSync: leaving the console', () => {
+  it('when the console unmounts with edits waiting, then they are still sent, and polling stops', async () => {
+    const { result, unmount } = renderSync(server.boardId);
+    await loaded(result);
+    const [c1, c2] = server.circuitIds as [number, number];
+    server.holdWrites();
+    act(() => {
+      result.current.writeCell(c1, 'zs', '0.47');
+      result.current.writeCell(c2, 'zs', '0.58');
+    });
+    unmount();
+    await new Promise((resolve) => setTimeout(resolve, 20));
+    server.releaseWrites();
+    await waitFor(async () => expect((await server.cell(c2, 'zs'))?.text).toBe('0.58'));
+    expect((await server.cell(c1, 'zs'))?.text).toBe('0.47');
+    await waitFor(() => expect(localStorage.getItem(outboxStorageKey(server.boardId))).toBeNull());
+
+    const polls = server.log.filter((r) => r.path.includes('/changes')).length;
+    await new Promise((resolve) => setTimeout(resolve, 1500));
+    expect(server.log.filter((r) => r.path.includes('/changes')).length).toBe(polls);
+  });
+});
+
 describe('useBoardSync: conflicts', () => {
   /** Holds this page's polls so it keeps the version it saw while someone else writes. */
   async function freezeFeed() {
@@ -225,7 +248,8 @@ describe('useBoardSync: conflicts', () => {
 
 describe('useBoardSync: offline', () => {
   it('when the server cannot be reached, then edits wait in localStorage, survive a reload and land in order when it comes back', async () => {
-    const first = renderSync(server.boardId);
+    const firstClient = newQueryClient();
+    const first = renderSync(server.boardId, firstClient);
     await loaded(first.result);
     const [c1, c2, c3] = server.circuitIds as [number, number, number];
 
@@ -241,8 +265,13 @@ describe('useBoardSync: offline', () => {
     const stored = JSON.parse(localStorage.getItem(outboxStorageKey(server.boardId)) ?? 'null') as { entries: { edit: { text?: string; value?: unknown } }[] };
     expect(stored.entries.map((e) => e.edit.text ?? e.edit.value)).toEqual(['0.41', '0.52', 'Garage', '0.43']);
 
-    // A reload: the page goes away and a new one (new QueryClient, new engine) opens the board.
+    // A reload: the page goes away with everything in it (its engine, which would otherwise keep
+    // sending in the background) and a new page (new QueryClient, new engine) opens the board.
     first.unmount();
+    await act(async () => {
+      await new Promise((resolve) => setTimeout(resolve, 0));
+    });
+    stopBoardSync(firstClient);
     const second = renderSync(server.boardId, newQueryClient());
     await waitFor(() => expect(second.result.current.status).toEqual({ state: 'offline', waiting: 4 }));
 
