@@ -648,7 +648,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
  * overlay lists them.
  */
 export const gridKeyRows: ReadonlyArray<{ label: string; keys: readonly string[]; words?: readonly string[] }> = [
-  { label: 'Type over the cell (a leading point gets its zero: .44 → 0.44)', keys: [], words: ['any character'] },
+  { label: 'Type over the cell (short forms are written out: .44 → 0.44, v → ✓, x → ✗, na → N/A)', keys: [], words: ['any character'] },
   { label: 'Save and go down the column (from the last circuit, to the top of the next column)', keys: ['Enter'] },
   { label: 'Save and go up the column', keys: ['Shift+Enter'] },
   { label: 'Save and go right / left (wraps to the next / previous circuit)', keys: ['Tab', 'Shift+Tab'] },

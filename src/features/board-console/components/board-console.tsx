@@ -10,7 +10,7 @@ import { parseShortcut } from '../../../lib/commands/shortcut.ts';
 import type { Command } from '../../../lib/commands/types.ts';
 import { useCommandKeys } from '../../../lib/commands/use-command-keys.ts';
 import { createConsoleCommands, gridKeyRows, gridReservedKeys, type ConsoleContext } from '../commands.ts';
-import { indexFindings, type FindingsIndex } from '../grid/findings-index.ts';
+import { indexFindings, signatureOf, type FindingsIndex } from '../grid/findings-index.ts';
 import type { GridPosition } from '../grid/grid-state.ts';
 import type { CellChange } from '../grid/undo-stack.ts';
 import { QuickEntryLine } from '../quick-entry/quick-entry-line.tsx';
@@ -105,8 +105,19 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
     return map;
   }, [sync.conflicts]);
 
-  const circuitNumbers = useMemo(() => new Map(detail.circuits.map((c) => [c.id, c.number])), [detail.circuits]);
-  const quickEntryCircuits: QuickEntryCircuit[] = useMemo(() => detail.circuits.map((c) => ({ id: c.id, number: c.number })), [detail.circuits]);
+  // Rebuilt only when circuits are added, removed, reordered or renumbered, not on each value typed.
+  const numbersKey = detail.circuits.map((c) => `${c.id}\t${c.number}`).join('\n');
+  const quickEntryCircuits: QuickEntryCircuit[] = useMemo(
+    () => (numbersKey === '' ? [] : numbersKey.split('\n').map((line) => ({ id: Number(line.split('\t')[0]), number: line.split('\t')[1] ?? '' }))),
+    [numbersKey],
+  );
+  const circuitNumbers = useMemo(() => new Map(quickEntryCircuits.map((c) => [c.id, c.number])), [quickEntryCircuits]);
+
+  // The list beside the grid keeps its array while the findings say the same, so it does not re-render.
+  const stableFindings = useRef<{ signature: string; findings: readonly Finding[] }>({ signature: '', findings: [] });
+  const findingsSignature = signatureOf(findings);
+  if (findingsSignature !== stableFindings.current.signature) stableFindings.current = { signature: findingsSignature, findings };
+  const panelFindings = stableFindings.current.findings;
 
   const active = grid.active;
   const activeConflict = active ? (conflictsByCell.get(active.circuitId)?.get(active.column) ?? null) : null;
@@ -259,7 +270,7 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
           onCellDoubleClick={grid.onCellDoubleClick}
         />
         <FindingsPanel
-          findings={findings}
+          findings={panelFindings}
           circuitOrder={grid.shape.rows}
           circuitNumbers={circuitNumbers}
           onJump={onJumpToFinding}

@@ -1,5 +1,5 @@
 import { useVirtualizer } from '@tanstack/react-virtual';
-import { memo, useLayoutEffect, useMemo, type KeyboardEvent, type MouseEvent, type RefObject } from 'react';
+import { memo, useLayoutEffect, useMemo, useRef, type KeyboardEvent, type MouseEvent, type RefObject, type UIEvent } from 'react';
 import type { Circuit } from '../../../../shared/schemas/boards.ts';
 import { columnGroups, type ColumnDef } from '../../../../shared/schemas/columns.ts';
 import type { Severity } from '../../../../shared/schemas/findings.ts';
@@ -78,27 +78,48 @@ export function BoardGrid(props: BoardGridProps) {
     count: circuits.length,
     getScrollElement: () => gridRef.current,
     estimateSize: () => rowHeight,
-    overscan: 12,
+    overscan: 6,
     scrollMargin: headerHeight,
     getItemKey: (index) => circuits[index]?.id ?? index,
   });
 
+  // Where the grid is scrolled and how big it is, kept from scroll and resize events, so moving
+  // the cursor never has to ask the browser for a fresh layout in the middle of a keystroke.
+  const viewport = useRef({ top: 0, left: 0, width: 0, height: 0 });
+  useLayoutEffect(() => {
+    const el = gridRef.current;
+    if (!el) return;
+    viewport.current = { top: el.scrollTop, left: el.scrollLeft, width: el.clientWidth, height: el.clientHeight };
+    const observer = new ResizeObserver(() => {
+      viewport.current.width = el.clientWidth;
+      viewport.current.height = el.clientHeight;
+    });
+    observer.observe(el);
+    return () => observer.disconnect();
+  }, [gridRef]);
+  const onScroll = (event: UIEvent<HTMLDivElement>) => {
+    viewport.current.top = event.currentTarget.scrollTop;
+    viewport.current.left = event.currentTarget.scrollLeft;
+  };
+
   // Bring the active cell into view when the cursor moves (not when data changes: a live update
-  // never scrolls the typist away).
+  // never scrolls the typist away). Vertically it jumps by most of a page rather than a row at a
+  // time, so typing down a long column scrolls once every dozen values and shows the rows ahead.
   const activeRow = activeIndex?.row ?? -1;
   const activeCol = activeIndex?.col ?? -1;
   useLayoutEffect(() => {
     const el = gridRef.current;
     if (!el || activeRow < 0 || activeCol < 0) return;
+    const view = viewport.current;
     const top = headerHeight + activeRow * rowHeight;
-    const viewHeight = el.clientHeight;
-    if (top - headerHeight < el.scrollTop) el.scrollTop = top - headerHeight;
-    else if (top + rowHeight > el.scrollTop + viewHeight) el.scrollTop = top + rowHeight - viewHeight;
+    const bodyHeight = Math.max(rowHeight, view.height - headerHeight);
+    const lead = Math.floor(bodyHeight / 3 / rowHeight) * rowHeight;
+    if (top - headerHeight < view.top) el.scrollTop = view.top = Math.max(0, top - headerHeight - Math.max(0, bodyHeight - lead - rowHeight));
+    else if (top + rowHeight > view.top + view.height) el.scrollTop = view.top = top - headerHeight - lead;
     const left = offsets.lefts[activeCol] ?? 0;
     const width = columns[activeCol]?.width ?? 0;
-    const viewWidth = el.clientWidth;
-    if (left - rowHeaderWidth < el.scrollLeft) el.scrollLeft = left - rowHeaderWidth;
-    else if (left + width > el.scrollLeft + viewWidth) el.scrollLeft = left + width - viewWidth;
+    if (left - rowHeaderWidth < view.left) el.scrollLeft = view.left = left - rowHeaderWidth;
+    else if (left + width > view.left + view.width) el.scrollLeft = view.left = left + width - view.width;
   }, [activeRow, activeCol, gridRef, offsets, columns]);
 
   const activeCircuit = activeRow >= 0 ? circuits[activeRow] : undefined;
@@ -129,54 +150,10 @@ export function BoardGrid(props: BoardGridProps) {
       aria-activedescendant={activeDescendant}
       tabIndex={0}
       onKeyDown={props.onKeyDown}
+      onScroll={onScroll}
       className="relative min-h-0 flex-1 overflow-auto bg-surface focus:outline-none focus-visible:ring-2 focus-visible:ring-accent focus-visible:ring-inset"
     >
-      <div style={{ width: offsets.total }} className="sticky top-0 z-20 bg-surface">
-        <div role="row" aria-rowindex={1} className="flex border-b border-line" style={{ height: groupHeaderHeight }}>
-          <div
-            role="columnheader"
-            aria-colindex={1}
-            className="sticky left-0 z-10 border-r border-line bg-surface"
-            style={{ width: rowHeaderWidth }}
-          />
-          {groups.map((g) => (
-            <div
-              key={g.id}
-              role="columnheader"
-              aria-colindex={g.first + 2}
-              aria-colspan={g.span}
-              className="truncate border-r border-line-strong px-1.5 text-xs leading-[22px] font-semibold tracking-wide text-muted uppercase"
-              style={{ width: g.width }}
-            >
-              {g.label}
-            </div>
-          ))}
-        </div>
-        <div role="row" aria-rowindex={2} className="flex border-b border-line-strong" style={{ height: columnHeaderHeight }}>
-          <div
-            role="columnheader"
-            aria-colindex={1}
-            className="sticky left-0 z-10 flex items-end border-r border-line bg-surface px-1.5 pb-1 text-xs font-semibold"
-            style={{ width: rowHeaderWidth }}
-          >
-            Circuit
-          </div>
-          {columns.map((c, i) => (
-            <div
-              key={c.key}
-              role="columnheader"
-              aria-colindex={i + 2}
-              aria-label={c.unit ? `${c.label} (${c.unit})` : c.label}
-              title={c.meaning}
-              className={`flex flex-col justify-end border-r border-line px-1.5 pb-1 leading-tight ${i === activeCol ? 'bg-accent-soft' : ''}`}
-              style={{ width: c.width }}
-            >
-              <span className="truncate text-xs font-semibold">{c.label}</span>
-              <span className="h-3.5 truncate text-[11px] text-muted">{c.unit ?? ''}</span>
-            </div>
-          ))}
-        </div>
-      </div>
+      <GridHeader columns={columns} groups={groups} width={offsets.total} activeCol={activeCol} />
       <div role="presentation" className="relative" style={{ height: virtualizer.getTotalSize() - headerHeight, width: offsets.total }}>
         {virtualizer.getVirtualItems().map((item) => {
           const circuit = circuits[item.index];
@@ -208,6 +185,65 @@ export function BoardGrid(props: BoardGridProps) {
     </div>
   );
 }
+
+interface GridHeaderProps {
+  columns: readonly ColumnDef[];
+  groups: ReadonlyArray<{ id: string; label: string; first: number; span: number; width: number }>;
+  width: number;
+  activeCol: number;
+}
+
+/** The two sticky header rows: column groups, then columns with their units. */
+const GridHeader = memo(function GridHeader({ columns, groups, width, activeCol }: GridHeaderProps) {
+  return (
+    <div style={{ width }} className="sticky top-0 z-20 bg-surface">
+      <div role="row" aria-rowindex={1} className="flex border-b border-line" style={{ height: groupHeaderHeight }}>
+        <div
+          role="columnheader"
+          aria-colindex={1}
+          className="sticky left-0 z-10 border-r border-line bg-surface"
+          style={{ width: rowHeaderWidth }}
+        />
+        {groups.map((g) => (
+          <div
+            key={g.id}
+            role="columnheader"
+            aria-colindex={g.first + 2}
+            aria-colspan={g.span}
+            className="truncate border-r border-line-strong px-1.5 text-xs leading-[22px] font-semibold tracking-wide text-muted uppercase"
+            style={{ width: g.width }}
+          >
+            {g.label}
+          </div>
+        ))}
+      </div>
+      <div role="row" aria-rowindex={2} className="flex border-b border-line-strong" style={{ height: columnHeaderHeight }}>
+        <div
+          role="columnheader"
+          aria-colindex={1}
+          className="sticky left-0 z-10 flex items-end border-r border-line bg-surface px-1.5 pb-1 text-xs font-semibold"
+          style={{ width: rowHeaderWidth }}
+        >
+          Circuit
+        </div>
+        {columns.map((c, i) => (
+          <div
+            key={c.key}
+            role="columnheader"
+            aria-colindex={i + 2}
+            aria-label={c.unit ? `${c.label} (${c.unit})` : c.label}
+            title={c.meaning}
+            className={`flex flex-col justify-end border-r border-line px-1.5 pb-1 leading-tight ${i === activeCol ? 'bg-accent-soft' : ''}`}
+            style={{ width: c.width }}
+          >
+            <span className="truncate text-xs font-semibold">{c.label}</span>
+            <span className="h-3.5 truncate text-[11px] text-muted">{c.unit ?? ''}</span>
+          </div>
+        ))}
+      </div>
+    </div>
+  );
+});
 
 /** The refused-text messages of one circuit (a shared empty map when none, so rows stay memoised). */
 function rowErrors(errors: ReadonlyMap<string, string>, circuitId: number): ReadonlyMap<string, string> {

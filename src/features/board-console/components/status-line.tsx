@@ -31,7 +31,7 @@ export function StatusLine(props: StatusLineProps) {
   const save = describeSaveStatus(props.status);
   const worst = findings?.worst;
   return (
-    <footer className="shrink-0 border-t border-line-strong bg-surface px-3 py-1 text-sm">
+    <section aria-label="Status line" className="shrink-0 border-t border-line-strong bg-surface px-3 py-1 text-sm">
       <div className="flex flex-wrap items-baseline gap-x-3">
         <span className="font-semibold">
           {circuit ? (
@@ -94,6 +94,6 @@ export function StatusLine(props: StatusLineProps) {
           {notice ? <span key={notice.id}>{notice.text}</span> : null}
         </span>
       </div>
-    </footer>
+    </section>
   );
 }

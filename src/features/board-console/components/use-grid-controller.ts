@@ -60,9 +60,12 @@ export function useGridController(options: GridControllerOptions) {
   const columns = options.columns ?? allColumns;
   const circuits = detail.circuits;
 
+  // The shape changes only when circuits are added, removed or reordered, not on every value typed,
+  // so what depends on it (the findings list, the key handlers) is not rebuilt on each keystroke.
+  const rowsKey = circuits.map((c) => c.id).join(',');
   const shape: GridShape = useMemo(
-    () => ({ rows: circuits.map((c) => c.id), columns: columns.map((c) => c.key) }),
-    [circuits, columns],
+    () => ({ rows: rowsKey === '' ? [] : rowsKey.split(',').map(Number), columns: columns.map((c) => c.key) }),
+    [rowsKey, columns],
   );
   const circuitById = useMemo(() => new Map(circuits.map((c) => [c.id, c])), [circuits]);
 

@@ -14,7 +14,7 @@ export type WriteResult =
 /**
  * Writes the text of one grid cell through the sync engine (never the API directly).
  *
- * - A reading column stores the text as typed (trimmed, ".44" given its zero). A LIM keeps the
+ * - A reading column stores the text as typed, short forms written out (see `normaliseReading`). A LIM keeps the
  *   reason it already had unless one is given; any other value drops the reason.
  * - A detail column stores the typed field: the text is converted first, and text that cannot be
  *   converted is refused with a message for the cell and nothing is written.
@@ -30,7 +30,7 @@ export function writeCellText(
 ): WriteResult {
   const how = options.how ?? 'typed';
   if (isReadingKey(column)) {
-    const value = normaliseReading(text);
+    const value = normaliseReading(column, text);
     const current = circuit.cells[column];
     const isLim = value.toUpperCase() === 'LIM';
     const reason = options.reason !== undefined ? options.reason : isLim ? (current?.reason ?? null) : null;

@@ -32,7 +32,8 @@ export interface FindingsIndex {
 
 export const emptyFindingsIndex: FindingsIndex = { byCircuit: new Map(), board: [], signatures: new Map() };
 
-function signatureOf(findings: readonly Finding[]): string {
+/** A text that is equal for two lists of findings exactly when they say the same things. */
+export function signatureOf(findings: readonly Finding[]): string {
   return findings.map((f) => `${f.code}|${f.severity}|${f.columns.join(',')}|${f.message}|${f.limit ?? ''}|${f.source ?? ''}`).join('\n');
 }
 

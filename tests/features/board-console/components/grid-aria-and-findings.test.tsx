@@ -77,7 +77,7 @@ describe('the grid for screen readers', () => {
   it('when the cursor is on a cell with a finding, then the status line gives the finding, its limit and its source', async () => {
     const { grid, user } = renderConsole(board(), { findings: [zsOverMax] });
     await user.click(cellOf(grid, '2', 'Zs'));
-    const footer = screen.getByRole('contentinfo');
+    const footer = screen.getByRole('region', { name: 'Status line' });
     expect(footer).toHaveTextContent('Circuit 2 · Kitchen sockets');
     expect(footer).toHaveTextContent('Zs (Ω) — Maximum measured earth fault loop impedance');
     expect(footer).toHaveTextContent('Error: Zs 1.52 Ω is over the maximum 1.37 Ω for a B32 at 0.4 s.');

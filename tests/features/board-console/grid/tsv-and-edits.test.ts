@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { ColumnKey } from '../../../../shared/schemas/columns.ts';
+import type { ColumnKey, ReadingKey } from '../../../../shared/schemas/columns.ts';
 import { matchChoice, normaliseReading, parseDetailText } from '../../../../src/features/board-console/grid/cell-value.ts';
 import { clearChanges, fillDownChanges, fillFromAboveChange, pasteChanges, rangeTexts } from '../../../../src/features/board-console/grid/edits.ts';
 import type { GridPosition, GridShape } from '../../../../src/features/board-console/grid/grid-state.ts';
@@ -80,15 +80,20 @@ describe('undo and redo', () => {
 });
 
 describe('text to stored values', () => {
-  it.each([
-    ['.44', '0.44'],
-    ['>.5', '>0.5'],
-    [' 0.44 ', '0.44'],
-    ['>200', '>200'],
-    ['LIM', 'LIM'],
-    ['N/A', 'N/A'],
-  ])('a reading typed as %j is stored as %j', (typed, stored) => {
-    expect(normaliseReading(typed)).toBe(stored);
+  it.each<[ReadingKey, string, string]>([
+    ['zs', '.44', '0.44'],
+    ['irLiveEarth', '>.5', '>0.5'],
+    ['zs', ' 0.44 ', '0.44'],
+    ['irLiveEarth', '>200', '>200'],
+    ['zs', 'lim', 'LIM'],
+    ['rcdTimeMs', 'na', 'N/A'],
+    ['polarity', 'v', '✓'],
+    ['rcdButton', 'ok', '✓'],
+    ['afddButton', 'x', '✗'],
+    ['zs', 'v', 'v'],
+    ['zs', '0,44', '0,44'],
+  ])('a reading of %s typed as %j is stored as %j', (column, typed, stored) => {
+    expect(normaliseReading(column, typed)).toBe(stored);
   });
 
   it('when a detail is typed, then numbers, choices and text are read, and bad text is refused in words', () => {
