@@ -169,7 +169,8 @@ export class BoardSyncEngine {
       ? previous.entries
       : [...this.entries];
     const sameStatus = previous && JSON.stringify(previous.status) === JSON.stringify(status);
-    const conflicts = entries === previous?.entries ? previous.conflicts : entries.flatMap((e) => (e.conflict ? [e.conflict] : []));
+    const found = entries === previous?.entries ? previous.conflicts : entries.flatMap((e) => (e.conflict ? [e.conflict] : []));
+    const conflicts = previous && found.length === previous.conflicts.length && found.every((c, i) => c === previous.conflicts[i]) ? previous.conflicts : found;
     return {
       entries,
       conflicts,
@@ -582,6 +583,8 @@ export class BoardSyncEngine {
       if (run !== this.run) return;
       if (isUnreachable(error)) {
         this.pollUnreachable = true;
+        // Who else is on the board is not known while the server cannot be asked.
+        if (this.present.length > 0) this.present = [];
         this.emit();
       }
     } finally {
