@@ -288,6 +288,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
       label: 'Conflict: keep their value',
       group: groups.cells,
       keywords: ['conflict', 'theirs', 'discard mine'],
+      shortcut: 'Alt+Shift+KeyT',
       when: (ctx) => (ctx.activeConflict ? true : 'The active cell has no conflict'),
       run: (ctx) => {
         if (ctx.activeConflict) ctx.sync.resolveConflict(ctx.activeConflict.editId, 'keep-theirs');
@@ -299,6 +300,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
       label: 'Conflict: write my value over theirs',
       group: groups.cells,
       keywords: ['conflict', 'mine', 'overwrite'],
+      shortcut: 'Alt+Shift+KeyM',
       when: (ctx) => lockedReason(ctx) ?? (ctx.activeConflict ? true : 'The active cell has no conflict'),
       run: (ctx) => {
         if (ctx.activeConflict) ctx.sync.resolveConflict(ctx.activeConflict.editId, 'overwrite');

@@ -119,6 +119,26 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
   if (findingsSignature !== stableFindings.current.signature) stableFindings.current = { signature: findingsSignature, findings };
   const panelFindings = stableFindings.current.findings;
 
+  // Which cells still wait for the server (nothing does while everything is saved).
+  const pending = useMemo(() => {
+    const map = new Map<number, string>();
+    if (sync.status.state === 'saved' || !sync.isPending) return map;
+    for (const circuit of detail.circuits) {
+      let keys = '';
+      for (const column of grid.columns) if (sync.isPending(circuit.id, column.key)) keys += ` ${column.key}`;
+      if (keys) map.set(circuit.id, `${keys} `);
+    }
+    return map;
+  }, [sync, detail.circuits, grid.columns]);
+
+  const resolveConflict = useCallback(
+    (conflict: Conflict, choice: 'keep-theirs' | 'overwrite') => {
+      sync.resolveConflict(conflict.editId, choice);
+      ctxRef.current?.grid.focusGrid();
+    },
+    [sync],
+  );
+
   const active = grid.active;
   const activeConflict = active ? (conflictsByCell.get(active.circuitId)?.get(active.column) ?? null) : null;
 
@@ -263,6 +283,8 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
           findings={findingsIndex}
           conflicts={conflictsByCell}
           cellErrors={grid.cellErrors}
+          pending={pending}
+          onResolveConflict={resolveConflict}
           gridRef={grid.gridRef}
           editorRef={grid.editorRef}
           onKeyDown={grid.onKeyDown}
@@ -281,10 +303,7 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
         conflicts={sync.conflicts}
         circuitNumbers={circuitNumbers}
         onShow={(conflict) => jumpTo({ circuitId: conflict.circuitId, column: conflict.column as ColumnKey })}
-        onResolve={(conflict, choice) => {
-          sync.resolveConflict(conflict.editId, choice);
-          grid.focusGrid();
-        }}
+        onResolve={resolveConflict}
       />
       <StatusLine
         circuit={activeCircuit}

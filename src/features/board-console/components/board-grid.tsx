@@ -42,6 +42,10 @@ export interface BoardGridProps {
   conflicts: ReadonlyMap<number, ReadonlyMap<string, Conflict>>;
   /** Messages for text refused at a cell (not saved), by `cellKey`. */
   cellErrors: ReadonlyMap<string, string>;
+  /** Columns with an edit not yet on the server, per circuit, as " key key " (absent when none). */
+  pending: ReadonlyMap<number, string>;
+  /** Settles the conflict on a cell (from the choices shown under the active cell). */
+  onResolveConflict: (conflict: Conflict, choice: 'keep-theirs' | 'overwrite') => void;
   gridRef: RefObject<HTMLDivElement | null>;
   editorRef: RefObject<HTMLInputElement | null>;
   onKeyDown: (event: KeyboardEvent<HTMLDivElement>) => void;
@@ -175,6 +179,8 @@ export function BoardGrid(props: BoardGridProps) {
               findings={findings.byCircuit.get(circuit.id) ?? emptyRowFindings}
               conflicts={conflicts.get(circuit.id) ?? emptyRowConflicts}
               errors={rowErrors(cellErrors, circuit.id)}
+              pending={props.pending.get(circuit.id) ?? ''}
+              onResolveConflict={props.onResolveConflict}
               editorRef={props.editorRef}
               onCellPointerDown={props.onCellPointerDown}
               onCellDoubleClick={props.onCellDoubleClick}
@@ -269,6 +275,8 @@ interface GridRowProps {
   findings: RowFindings;
   conflicts: ReadonlyMap<string, Conflict>;
   errors: ReadonlyMap<string, string>;
+  pending: string;
+  onResolveConflict: (conflict: Conflict, choice: 'keep-theirs' | 'overwrite') => void;
   editorRef: RefObject<HTMLInputElement | null>;
   onCellPointerDown: (position: GridPosition, extend: boolean) => void;
   onCellDoubleClick: (position: GridPosition) => void;
@@ -279,6 +287,7 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
   const circuitFindings = findings.get('');
   const isActiveRow = activeCol >= 0;
   const hasRange = rangeLeft >= 0 && (rangeRight > rangeLeft || !isActiveRow);
+  const activeConflict = isActiveRow && !edit ? conflicts.get(columns[activeCol]?.key ?? '') : undefined;
 
   const pointer = (event: MouseEvent, column: ColumnDef['key']) => {
     if (event.button !== 0) return;
@@ -291,7 +300,7 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
       role="row"
       aria-rowindex={props.index + 3}
       className={`absolute left-0 flex border-b border-line ${isActiveRow ? 'bg-accent-soft/40' : ''}`}
-      style={{ height: rowHeight, width: props.width, transform: `translateY(${props.top}px)` }}
+      style={{ height: rowHeight, width: props.width, transform: `translateY(${props.top}px)`, zIndex: activeConflict ? 5 : undefined }}
     >
       <div
         role="rowheader"
@@ -320,6 +329,8 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
           [error ? cellErrorDomId(circuit.id, column.key) : null, cellFindings ? cellFindingDomId(circuit.id, column.key) : null, conflict ? `${cellDomId(circuit.id, column.key)}-conflict` : null]
             .filter(Boolean)
             .join(' ') || undefined;
+        const pending = props.pending !== '' && props.pending.includes(` ${column.key} `);
+        const marked = pending || conflict !== undefined || error !== undefined || cellFindings !== undefined;
         const lim = column.storage === 'reading' && text.toUpperCase() === 'LIM' ? circuit.cells[column.key as keyof Circuit['cells']]?.reason : undefined;
         return (
           <div
@@ -348,13 +359,10 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
                 numeric={column.valueKind === 'reading' || column.valueKind === 'number' || column.valueKind === 'integer'}
               />
             ) : (
-              <span className={`min-w-0 flex-1 truncate px-1.5 ${column.valueKind === 'text' || column.valueKind === 'choice' ? '' : 'font-mono text-[13px]'}`}>
+              <span
+                className={`min-w-0 flex-1 truncate pl-1.5 ${marked ? 'pr-4' : 'pr-1'} ${column.valueKind === 'text' || column.valueKind === 'choice' ? '' : 'font-mono text-[13px]'}`}
+              >
                 {text}
-              </span>
-            )}
-            {conflict && (
-              <span aria-hidden="true" className="mr-0.5 rounded bg-locked px-0.5 text-[10px] leading-none font-bold text-white" title={`Conflict: theirs "${conflict.theirs}", yours "${conflict.mine}"`}>
-                ⇄
               </span>
             )}
             {conflict && (
@@ -367,13 +375,30 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
                 Not saved: {error}
               </span>
             )}
-            {error ? (
-              <span aria-hidden="true" className={`mr-0.5 shrink-0 rounded px-0.5 text-[10px] leading-none font-bold ${severityBadgeClass.error}`}>
-                {severitySymbol.error}
+            {marked && !(isActive && edit) && (
+              <span className="absolute top-1/2 right-0.5 flex -translate-y-1/2 items-center gap-px">
+                {pending && (
+                  <span title="Not yet on the server" className="text-[10px] leading-none text-muted">
+                    <span aria-hidden="true">•</span>
+                    <span className="sr-only">not yet saved</span>
+                  </span>
+                )}
+                {conflict && (
+                  <span aria-hidden="true" className="rounded bg-locked px-0.5 text-[10px] leading-none font-bold text-white" title={`Conflict: theirs "${conflict.theirs}", yours "${conflict.mine}"`}>
+                    ⇄
+                  </span>
+                )}
+                {error ? (
+                  <span aria-hidden="true" className={`inline-flex h-3.5 min-w-3.5 items-center justify-center rounded px-0.5 text-[10px] leading-none font-bold ${severityBadgeClass.error}`}>
+                    {severitySymbol.error}
+                  </span>
+                ) : (
+                  cellFindings && <FindingMark cell={cellFindings} id={cellFindingDomId(circuit.id, column.key)} />
+                )}
               </span>
-            ) : (
-              cellFindings && <FindingMark cell={cellFindings} id={cellFindingDomId(circuit.id, column.key)} />
             )}
+            {marked && isActive && edit && cellFindings && !error && <FindingText cell={cellFindings} id={cellFindingDomId(circuit.id, column.key)} />}
+            {isActive && activeConflict && <ConflictChoices conflict={activeConflict} onResolve={props.onResolveConflict} />}
           </div>
         );
       })}
@@ -381,25 +406,62 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
   );
 });
 
+/**
+ * Under the active cell when someone else wrote it first: both values and the two choices. The
+ * keys (Alt+Shift+T, Alt+Shift+M) and the palette reach the same choices without the pointer.
+ */
+function ConflictChoices({ conflict, onResolve }: { conflict: Conflict; onResolve: (conflict: Conflict, choice: 'keep-theirs' | 'overwrite') => void }) {
+  return (
+    <div
+      role="group"
+      aria-label="Conflict on this cell"
+      onMouseDown={(event) => event.stopPropagation()}
+      className="absolute top-full left-0 z-30 mt-px w-72 rounded border border-locked bg-surface p-2 text-sm text-ink shadow-lg"
+    >
+      <p>
+        <span aria-hidden="true" className="font-bold text-locked">⇄ </span>
+        {conflict.theirsBy ?? 'Someone'} wrote <span className="font-mono font-semibold">“{conflict.theirs}”</span>; you wrote{' '}
+        <span className="font-mono font-semibold">“{conflict.mine}”</span>.
+      </p>
+      <div className="mt-1 flex gap-1">
+        <button type="button" tabIndex={-1} onClick={() => onResolve(conflict, 'keep-theirs')} className="rounded border border-line-strong px-2 py-px hover:bg-accent-soft">
+          Keep theirs <kbd className="text-xs text-muted">Alt+Shift+T</kbd>
+        </button>
+        <button type="button" tabIndex={-1} onClick={() => onResolve(conflict, 'overwrite')} className="rounded border border-line-strong px-2 py-px hover:bg-accent-soft">
+          Write mine <kbd className="text-xs text-muted">Alt+Shift+M</kbd>
+        </button>
+      </div>
+    </div>
+  );
+}
+
 /** The worst finding's symbol (visible) and its text (for `aria-describedby`, read by screen readers). */
 function FindingMark({ cell, id }: { cell: CellFindings; id: string }) {
-  const { worst, all } = cell;
-  const more = all.length > 1 ? ` (and ${all.length - 1} more)` : '';
+  const { worst } = cell;
   return (
     <>
       <span
         aria-hidden="true"
         title={`${severityWord[worst.severity]}: ${worst.message}`}
-        className={`mr-0.5 inline-flex h-3.5 min-w-3.5 shrink-0 items-center justify-center rounded px-0.5 text-[10px] leading-none font-bold ${severityBadgeClass[worst.severity]}`}
+        className={`inline-flex h-3.5 min-w-3.5 items-center justify-center rounded px-0.5 text-[10px] leading-none font-bold ${severityBadgeClass[worst.severity]}`}
       >
         {severitySymbol[worst.severity]}
       </span>
-      <span id={id} className="sr-only">
-        {severityWord[worst.severity]}: {worst.message}
-        {worst.limit ? ` Limit ${worst.limit}.` : ''}
-        {more}
-      </span>
+      <FindingText cell={cell} id={id} />
     </>
+  );
+}
+
+/** The text of a cell's worst finding, hidden on screen, for `aria-describedby`. */
+function FindingText({ cell, id }: { cell: CellFindings; id: string }) {
+  const { worst, all } = cell;
+  const more = all.length > 1 ? ` (and ${all.length - 1} more)` : '';
+  return (
+    <span id={id} className="sr-only">
+      {severityWord[worst.severity]}: {worst.message}
+      {worst.limit ? ` Limit ${worst.limit}.` : ''}
+      {more}
+    </span>
   );
 }
 

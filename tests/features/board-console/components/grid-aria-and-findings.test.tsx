@@ -127,6 +127,24 @@ describe('conflicts', () => {
   });
 });
 
+describe('conflicts from the keyboard', () => {
+  it('when the cursor is on a conflicting cell, then its choices show under it and the keys settle it', async () => {
+    const { grid, user, resolved } = renderConsole(board(), {
+      conflicts: [{ editId: 'e2', circuitId: 12, column: 'zs', mine: '1.1', theirs: '1.52', theirsBy: 'Ruth' }],
+    });
+    await user.click(cellOf(grid, '2', 'Zs'));
+    const choices = within(grid).getByRole('group', { name: 'Conflict on this cell' });
+    expect(choices).toHaveTextContent('Ruth wrote “1.52”; you wrote “1.1”.');
+    await user.keyboard('{Alt>}{Shift>}T{/Shift}{/Alt}');
+    await user.keyboard('{Alt>}{Shift>}M{/Shift}{/Alt}');
+    expect(resolved).toEqual([
+      { editId: 'e2', choice: 'keep-theirs' },
+      { editId: 'e2', choice: 'overwrite' },
+    ]);
+    expect(document.activeElement).toBe(grid);
+  });
+});
+
 describe('commands from the palette', () => {
   it('when a tester opens the palette, then locking is shown disabled with its reason', async () => {
     const { user } = renderConsole(board(), { role: 'tester' });
