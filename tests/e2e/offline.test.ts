@@ -1,0 +1,114 @@
+import type { Browser, BrowserContext, Page, Route } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { demoTester, launchBrowser, startDemoServer, type DemoServer } from '../helpers/browser.ts';
+
+/**
+ * The console without a server: readings typed while the API cannot be reached wait in the
+ * browser (localStorage), survive a reload of the page, and all land, in order, when the API
+ * answers again. Keyboard only; what was saved is checked through the API.
+ */
+
+interface CircuitInfo {
+  id: number;
+  number: string;
+  cells: Record<string, { text: string; version: number } | undefined>;
+}
+
+let server: DemoServer;
+let browser: Browser;
+
+beforeAll(async () => {
+  server = await startDemoServer();
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+async function api<T>(context: BrowserContext, path: string): Promise<T> {
+  const res = await context.request.get(`${server.url}${path}`);
+  expect(res.status()).toBe(200);
+  return (await res.json()) as T;
+}
+
+async function pickBoard(context: BrowserContext): Promise<{ boardId: number; circuits: CircuitInfo[] }> {
+  const { boards } = await api<{ boards: { id: number; state: string }[] }>(context, '/api/boards');
+  for (const board of boards.filter((b) => b.state === 'open')) {
+    const detail = await api<{ circuits: CircuitInfo[] }>(context, `/api/boards/${board.id}`);
+    if (detail.circuits.length >= 8 && detail.circuits.every((c) => /^\d+[a-z]?$/.test(c.number))) return { boardId: board.id, circuits: detail.circuits };
+  }
+  throw new Error('No open demo board with plainly numbered circuits');
+}
+
+async function quickEntry(page: Page, line: string): Promise<void> {
+  await page.getByRole('grid').focus();
+  await page.keyboard.press('Control+j');
+  const input = page.getByLabel('Quick entry');
+  await expect.poll(() => input.evaluate((el) => el === document.activeElement)).toBe(true);
+  await page.keyboard.type(line);
+  await page.keyboard.press('Enter');
+}
+
+function cellText(page: Page, circuitId: number, column: string): Promise<string> {
+  return page.locator(`[id="bw-cell-${circuitId}-${column}"] > span`).first().innerText();
+}
+
+/** Whether the page says "offline" with this many edits waiting (header and status line both show it). */
+function saysOffline(page: Page, waiting: number) {
+  return page.getByText(`offline — ${waiting} waiting`).first().isVisible();
+}
+
+const abort = (route: Route) => route.abort('internetdisconnected');
+
+describe('offline', () => {
+  it('when the API cannot be reached, then typed readings wait, survive a reload, and all land in order when it is back', async () => {
+    const context = await browser.newContext();
+    expect((await context.request.post(`${server.url}/api/auth/sign-in`, { data: demoTester })).status()).toBe(200);
+    const { boardId, circuits } = await pickBoard(context);
+    const [first, second, third, fourth] = [circuits[2]!, circuits[3]!, circuits[4]!, circuits[5]!];
+
+    const page = await context.newPage();
+    await page.goto(`${server.url}/boards/${boardId}`);
+    await page.getByRole('grid').waitFor();
+
+    // Every API request fails, as with the network gone.
+    await context.route('**/api/**', abort);
+    await quickEntry(page, `${first.number} zs 0.81`);
+    await quickEntry(page, `${second.number} zs 0.82`);
+    await quickEntry(page, `${first.number} zs 0.83`);
+    await expect.poll(() => saysOffline(page, 3), { timeout: 5000 }).toBe(true);
+    expect(await cellText(page, first.id, 'zs')).toBe('0.83');
+    const stored = await page.evaluate((key) => localStorage.getItem(key), `boardwalk.outbox.${boardId}`);
+    expect((JSON.parse(stored ?? '{}') as { entries?: unknown[] }).entries).toHaveLength(3);
+
+    // Reload the page with the writes still failing (the page itself and the board load).
+    await context.unroute('**/api/**', abort);
+    const refuseWrites = (route: Route) => (['PUT', 'PATCH', 'POST', 'DELETE'].includes(route.request().method()) ? abort(route) : route.fallback());
+    await context.route('**/api/boards/**', refuseWrites);
+    await page.reload();
+    await page.getByRole('grid').waitFor();
+    // The waiting readings are shown from the stored outbox, and still wait.
+    expect(await cellText(page, first.id, 'zs')).toBe('0.83');
+    expect(await cellText(page, second.id, 'zs')).toBe('0.82');
+    await expect.poll(() => saysOffline(page, 3), { timeout: 5000 }).toBe(true);
+    await quickEntry(page, `${third.number} zs 0.84`);
+    await quickEntry(page, `${fourth.number} zs 0.85`);
+    await expect.poll(() => saysOffline(page, 5), { timeout: 5000 }).toBe(true);
+
+    // The API is back: everything lands (the retry waits at most 10 s), in the order typed.
+    await context.unroute('**/api/boards/**', refuseWrites);
+    const zsNow = async () => {
+      const { circuits: now } = await api<{ circuits: CircuitInfo[] }>(context, `/api/boards/${boardId}`);
+      return [first, second, third, fourth].map((c) => now.find((n) => n.id === c.id)?.cells.zs?.text);
+    };
+    await expect.poll(zsNow, { timeout: 20_000, interval: 250 }).toEqual(['0.83', '0.82', '0.84', '0.85']);
+    await expect.poll(() => page.getByText(/^✓\s*saved$/).first().isVisible(), { timeout: 5000 }).toBe(true);
+    const { history } = await api<{ history: { newText: string }[] }>(context, `/api/boards/${boardId}/circuits/${first.id}/cells/zs/history`);
+    expect(history.slice(-2).map((h) => h.newText)).toEqual(['0.81', '0.83']);
+    expect(await page.evaluate((key) => localStorage.getItem(key), `boardwalk.outbox.${boardId}`)).toBeNull();
+
+    await context.close();
+  });
+});
