@@ -79,7 +79,8 @@ export const circuitSchema = circuitFieldsSchema.extend({
   boardId: z.number().int(),
   position: z.number().int(),
   version: z.number().int(),
-  cells: z.record(z.enum(readingKeys), cellSchema),
+  // Only the cells ever written are present.
+  cells: z.partialRecord(z.enum(readingKeys), cellSchema),
 });
 export type Circuit = Omit<z.infer<typeof circuitSchema>, 'cells'> & { cells: Cells };
 
