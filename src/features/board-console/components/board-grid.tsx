@@ -1,5 +1,5 @@
 import { useVirtualizer } from '@tanstack/react-virtual';
-import { memo, useLayoutEffect, useMemo, useRef, type KeyboardEvent, type MouseEvent, type RefObject, type UIEvent } from 'react';
+import { memo, useCallback, useLayoutEffect, useMemo, useRef, type KeyboardEvent, type MouseEvent, type RefObject, type UIEvent } from 'react';
 import type { Circuit } from '../../../../shared/schemas/boards.ts';
 import { columnGroups, type ColumnDef } from '../../../../shared/schemas/columns.ts';
 import type { Severity } from '../../../../shared/schemas/findings.ts';
@@ -289,11 +289,16 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
   const hasRange = rangeLeft >= 0 && (rangeRight > rangeLeft || !isActiveRow);
   const activeConflict = isActiveRow && !edit ? conflicts.get(columns[activeCol]?.key ?? '') : undefined;
 
-  const pointer = (event: MouseEvent, column: ColumnDef['key']) => {
-    if (event.button !== 0) return;
-    event.preventDefault();
-    props.onCellPointerDown({ circuitId: circuit.id, column }, event.shiftKey);
-  };
+  const { onCellPointerDown } = props;
+  const circuitId = circuit.id;
+  const pointer = useCallback(
+    (event: MouseEvent, column: ColumnDef['key']) => {
+      if (event.button !== 0) return;
+      event.preventDefault();
+      onCellPointerDown({ circuitId, column }, event.shiftKey);
+    },
+    [onCellPointerDown, circuitId],
+  );
 
   return (
     <div
@@ -319,89 +324,134 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
       </div>
       {columns.map((column, col) => {
         const isActive = col === activeCol;
-        const selected = hasRange && col >= rangeLeft && col <= rangeRight;
-        const cellFindings = findings.get(column.key);
-        const conflict = conflicts.get(column.key);
-        const error = errors.get(column.key);
-        const text = cellText(circuit, column.key);
-        const severity: Severity | null = error ? 'error' : (cellFindings?.worst.severity ?? null);
-        const describedBy =
-          [error ? cellErrorDomId(circuit.id, column.key) : null, cellFindings ? cellFindingDomId(circuit.id, column.key) : null, conflict ? `${cellDomId(circuit.id, column.key)}-conflict` : null]
-            .filter(Boolean)
-            .join(' ') || undefined;
-        const pending = props.pending !== '' && props.pending.includes(` ${column.key} `);
-        const marked = pending || conflict !== undefined || error !== undefined || cellFindings !== undefined;
-        const lim = column.storage === 'reading' && text.toUpperCase() === 'LIM' ? circuit.cells[column.key as keyof Circuit['cells']]?.reason : undefined;
+        const reading = column.storage === 'reading' ? circuit.cells[column.key as keyof Circuit['cells']] : undefined;
         return (
-          <div
+          <GridCell
             key={column.key}
-            role="gridcell"
-            id={cellDomId(circuit.id, column.key)}
-            aria-colindex={col + 2}
-            aria-selected={isActive || selected}
-            aria-invalid={severity === 'error' ? true : undefined}
-            aria-describedby={describedBy}
-            data-cell={cellKey(circuit.id, column.key)}
-            title={lim ? `Limitation: ${lim}` : undefined}
-            onMouseDown={(e) => pointer(e, column.key)}
-            onDoubleClick={() => props.onCellDoubleClick({ circuitId: circuit.id, column: column.key })}
-            className={`relative flex items-center border-r border-line ${severity ? severityCellClass[severity] : ''} ${
-              selected && !isActive ? 'bg-accent-soft!' : ''
-            } ${isActive ? 'z-[1] outline-2 -outline-offset-2 outline-accent' : ''}`}
-            style={{ width: column.width }}
-          >
-            {isActive && edit ? (
-              <CellEditor
-                edit={edit}
-                editorRef={props.editorRef}
-                label={`${column.label} of circuit ${circuit.number}`}
-                errorId={error ? cellErrorDomId(circuit.id, column.key) : undefined}
-                numeric={column.valueKind === 'reading' || column.valueKind === 'number' || column.valueKind === 'integer'}
-              />
-            ) : (
-              <span
-                className={`min-w-0 flex-1 truncate pl-1.5 ${marked ? 'pr-4' : 'pr-1'} ${column.valueKind === 'text' || column.valueKind === 'choice' ? '' : 'font-mono text-[13px]'}`}
-              >
-                {text}
-              </span>
-            )}
-            {conflict && (
-              <span id={`${cellDomId(circuit.id, column.key)}-conflict`} className="sr-only">
-                Conflict: {conflict.theirsBy ?? 'someone'} wrote “{conflict.theirs}”, you wrote “{conflict.mine}”.
-              </span>
-            )}
-            {error && (
-              <span id={cellErrorDomId(circuit.id, column.key)} className="sr-only">
-                Not saved: {error}
-              </span>
-            )}
-            {marked && !(isActive && edit) && (
-              <span className="absolute top-1/2 right-0.5 flex -translate-y-1/2 items-center gap-px">
-                {pending && (
-                  <span title="Not yet on the server" className="text-[10px] leading-none text-muted">
-                    <span aria-hidden="true">•</span>
-                    <span className="sr-only">not yet saved</span>
-                  </span>
-                )}
-                {conflict && (
-                  <span aria-hidden="true" className="rounded bg-locked px-0.5 text-[10px] leading-none font-bold text-white" title={`Conflict: theirs "${conflict.theirs}", yours "${conflict.mine}"`}>
-                    ⇄
-                  </span>
-                )}
-                {error ? (
-                  <span aria-hidden="true" className={`inline-flex h-3.5 min-w-3.5 items-center justify-center rounded px-0.5 text-[10px] leading-none font-bold ${severityBadgeClass.error}`}>
-                    {severitySymbol.error}
-                  </span>
-                ) : (
-                  cellFindings && <FindingMark cell={cellFindings} id={cellFindingDomId(circuit.id, column.key)} />
-                )}
-              </span>
-            )}
-            {marked && isActive && edit && cellFindings && !error && <FindingText cell={cellFindings} id={cellFindingDomId(circuit.id, column.key)} />}
-            {isActive && activeConflict && <ConflictChoices conflict={activeConflict} onResolve={props.onResolveConflict} />}
-          </div>
+            circuitId={circuit.id}
+            circuitNumber={circuit.number}
+            column={column}
+            col={col}
+            text={cellText(circuit, column.key)}
+            limReason={reading && reading.text.toUpperCase() === 'LIM' ? reading.reason : null}
+            isActive={isActive}
+            selected={hasRange && col >= rangeLeft && col <= rangeRight}
+            edit={isActive ? edit : null}
+            findings={findings.get(column.key)}
+            conflict={conflicts.get(column.key)}
+            conflictChoices={isActive ? activeConflict : undefined}
+            error={errors.get(column.key)}
+            pending={props.pending !== '' && props.pending.includes(` ${column.key} `)}
+            editorRef={props.editorRef}
+            onPointerDown={pointer}
+            onDoubleClick={props.onCellDoubleClick}
+            onResolveConflict={props.onResolveConflict}
+          />
         );
       })}
+    </div>
+  );
+});
+
+interface GridCellProps {
+  circuitId: number;
+  circuitNumber: string;
+  column: ColumnDef;
+  col: number;
+  text: string;
+  /** The reason recorded with a LIM, shown on hover. */
+  limReason: string | null | undefined;
+  isActive: boolean;
+  selected: boolean;
+  edit: EditState | null;
+  findings: CellFindings | undefined;
+  conflict: Conflict | undefined;
+  /** The conflict whose choices show under this cell (the active one). */
+  conflictChoices: Conflict | undefined;
+  error: string | undefined;
+  pending: boolean;
+  editorRef: RefObject<HTMLInputElement | null>;
+  onPointerDown: (event: MouseEvent, column: ColumnDef['key']) => void;
+  onDoubleClick: (position: GridPosition) => void;
+  onResolveConflict: (conflict: Conflict, choice: 'keep-theirs' | 'overwrite') => void;
+}
+
+/** One cell: its value, its worst finding (colour and symbol), conflict and unsaved marks, or the editor. */
+const GridCell = memo(function GridCell(props: GridCellProps) {
+  const { circuitId, circuitNumber, column, col, text, limReason, isActive, selected, edit, findings, conflict, conflictChoices, error, pending } = props;
+  const { editorRef, onPointerDown, onDoubleClick, onResolveConflict } = props;
+  const severity: Severity | null = error ? 'error' : (findings?.worst.severity ?? null);
+  const describedBy =
+    [error ? cellErrorDomId(circuitId, column.key) : null, findings ? cellFindingDomId(circuitId, column.key) : null, conflict ? `${cellDomId(circuitId, column.key)}-conflict` : null]
+      .filter(Boolean)
+      .join(' ') || undefined;
+  const marked = pending || conflict !== undefined || error !== undefined || findings !== undefined;
+  return (
+    <div
+      role="gridcell"
+      id={cellDomId(circuitId, column.key)}
+      aria-colindex={col + 2}
+      aria-selected={isActive || selected}
+      aria-invalid={severity === 'error' ? true : undefined}
+      aria-describedby={describedBy}
+      data-cell={cellKey(circuitId, column.key)}
+      title={limReason ? `Limitation: ${limReason}` : undefined}
+      onMouseDown={(e) => onPointerDown(e, column.key)}
+      onDoubleClick={() => onDoubleClick({ circuitId, column: column.key })}
+      className={`relative flex items-center border-r border-line ${severity ? severityCellClass[severity] : ''} ${
+        selected && !isActive ? 'bg-accent-soft!' : ''
+      } ${isActive ? 'z-[1] outline-2 -outline-offset-2 outline-accent' : ''}`}
+      style={{ width: column.width }}
+    >
+      {isActive && edit ? (
+        <CellEditor
+          edit={edit}
+          editorRef={editorRef}
+          label={`${column.label} of circuit ${circuitNumber}`}
+          errorId={error ? cellErrorDomId(circuitId, column.key) : undefined}
+          numeric={column.valueKind === 'reading' || column.valueKind === 'number' || column.valueKind === 'integer'}
+        />
+      ) : (
+        <span
+          className={`min-w-0 flex-1 truncate pl-1.5 ${marked ? 'pr-4' : 'pr-1'} ${column.valueKind === 'text' || column.valueKind === 'choice' ? '' : 'font-mono text-[13px]'}`}
+        >
+          {text}
+        </span>
+      )}
+      {conflict && (
+        <span id={`${cellDomId(circuitId, column.key)}-conflict`} className="sr-only">
+          Conflict: {conflict.theirsBy ?? 'someone'} wrote “{conflict.theirs}”, you wrote “{conflict.mine}”.
+        </span>
+      )}
+      {error && (
+        <span id={cellErrorDomId(circuitId, column.key)} className="sr-only">
+          Not saved: {error}
+        </span>
+      )}
+      {marked && !(isActive && edit) && (
+        <span className="absolute top-1/2 right-0.5 flex -translate-y-1/2 items-center gap-px">
+          {pending && (
+            <span title="Not yet on the server" className="text-[10px] leading-none text-muted">
+              <span aria-hidden="true">•</span>
+              <span className="sr-only">not yet saved</span>
+            </span>
+          )}
+          {conflict && (
+            <span aria-hidden="true" className="rounded bg-locked px-0.5 text-[10px] leading-none font-bold text-white" title={`Conflict: theirs "${conflict.theirs}", yours "${conflict.mine}"`}>
+              ⇄
+            </span>
+          )}
+          {error ? (
+            <span aria-hidden="true" className={`inline-flex h-3.5 min-w-3.5 items-center justify-center rounded px-0.5 text-[10px] leading-none font-bold ${severityBadgeClass.error}`}>
+              {severitySymbol.error}
+            </span>
+          ) : (
+            findings && <FindingMark cell={findings} id={cellFindingDomId(circuitId, column.key)} />
+          )}
+        </span>
+      )}
+      {marked && isActive && edit && findings && !error && <FindingText cell={findings} id={cellFindingDomId(circuitId, column.key)} />}
+      {conflictChoices && <ConflictChoices conflict={conflictChoices} onResolve={onResolveConflict} />}
     </div>
   );
 });
