@@ -142,6 +142,29 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
   const active = grid.active;
   const activeConflict = active ? (conflictsByCell.get(active.circuitId)?.get(active.column) ?? null) : null;
 
+  // A dialog gives the focus back to where it was; when that was a cell editor now gone (its text
+  // was saved as the focus left it), the grid takes the focus instead of the page body.
+  const refocusAfterDialog = useCallback(() => {
+    setTimeout(() => {
+      const focused = document.activeElement;
+      if (!focused || focused === document.body) ctxRef.current?.grid.focusGrid();
+    }, 0);
+  }, []);
+  const onPaletteOpenChange = useCallback(
+    (open: boolean) => {
+      setPaletteOpen(open);
+      if (!open) refocusAfterDialog();
+    },
+    [refocusAfterDialog],
+  );
+  const onKeysOpenChange = useCallback(
+    (open: boolean) => {
+      setKeysOpen(open);
+      if (!open) refocusAfterDialog();
+    },
+    [refocusAfterDialog],
+  );
+
   const openPalette = useCallback((commandId?: string) => {
     setPaletteCommand(commandId);
     setPaletteOpen(true);
@@ -288,6 +311,7 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
           gridRef={grid.gridRef}
           editorRef={grid.editorRef}
           onKeyDown={grid.onKeyDown}
+          onEditorBlur={grid.onEditorBlur}
           onCellPointerDown={grid.onCellPointerDown}
           onCellDoubleClick={grid.onCellDoubleClick}
         />
@@ -319,13 +343,13 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
       />
       <CommandPalette
         open={paletteOpen}
-        onOpenChange={setPaletteOpen}
+        onOpenChange={onPaletteOpenChange}
         registry={registry}
         ctx={ctx}
         commandId={paletteCommand}
         onError={onCommandError}
       />
-      <KeysOverlay open={keysOpen} onOpenChange={setKeysOpen} registry={registry} ctx={ctx} sections={keySections} />
+      <KeysOverlay open={keysOpen} onOpenChange={onKeysOpenChange} registry={registry} ctx={ctx} sections={keySections} />
     </div>
   );
 }

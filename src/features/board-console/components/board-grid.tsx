@@ -1,5 +1,5 @@
 import { useVirtualizer } from '@tanstack/react-virtual';
-import { memo, useCallback, useLayoutEffect, useMemo, useRef, type KeyboardEvent, type MouseEvent, type RefObject, type UIEvent } from 'react';
+import { memo, useCallback, useLayoutEffect, useMemo, useRef, type KeyboardEvent, type FocusEvent, type MouseEvent, type RefObject, type UIEvent } from 'react';
 import type { Circuit } from '../../../../shared/schemas/boards.ts';
 import { columnGroups, type ColumnDef } from '../../../../shared/schemas/columns.ts';
 import type { Severity } from '../../../../shared/schemas/findings.ts';
@@ -49,6 +49,8 @@ export interface BoardGridProps {
   gridRef: RefObject<HTMLDivElement | null>;
   editorRef: RefObject<HTMLInputElement | null>;
   onKeyDown: (event: KeyboardEvent<HTMLDivElement>) => void;
+  /** The cell editor lost the focus. */
+  onEditorBlur: (event: FocusEvent<HTMLInputElement>) => void;
   onCellPointerDown: (position: GridPosition, extend: boolean) => void;
   onCellDoubleClick: (position: GridPosition) => void;
 }
@@ -182,6 +184,7 @@ export function BoardGrid(props: BoardGridProps) {
               pending={props.pending.get(circuit.id) ?? ''}
               onResolveConflict={props.onResolveConflict}
               editorRef={props.editorRef}
+              onEditorBlur={props.onEditorBlur}
               onCellPointerDown={props.onCellPointerDown}
               onCellDoubleClick={props.onCellDoubleClick}
             />
@@ -278,6 +281,7 @@ interface GridRowProps {
   pending: string;
   onResolveConflict: (conflict: Conflict, choice: 'keep-theirs' | 'overwrite') => void;
   editorRef: RefObject<HTMLInputElement | null>;
+  onEditorBlur: (event: FocusEvent<HTMLInputElement>) => void;
   onCellPointerDown: (position: GridPosition, extend: boolean) => void;
   onCellDoubleClick: (position: GridPosition) => void;
 }
@@ -343,6 +347,7 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
             error={errors.get(column.key)}
             pending={props.pending !== '' && props.pending.includes(` ${column.key} `)}
             editorRef={props.editorRef}
+            onEditorBlur={props.onEditorBlur}
             onPointerDown={pointer}
             onDoubleClick={props.onCellDoubleClick}
             onResolveConflict={props.onResolveConflict}
@@ -371,6 +376,7 @@ interface GridCellProps {
   error: string | undefined;
   pending: boolean;
   editorRef: RefObject<HTMLInputElement | null>;
+  onEditorBlur: (event: FocusEvent<HTMLInputElement>) => void;
   onPointerDown: (event: MouseEvent, column: ColumnDef['key']) => void;
   onDoubleClick: (position: GridPosition) => void;
   onResolveConflict: (conflict: Conflict, choice: 'keep-theirs' | 'overwrite') => void;
@@ -379,7 +385,7 @@ interface GridCellProps {
 /** One cell: its value, its worst finding (colour and symbol), conflict and unsaved marks, or the editor. */
 const GridCell = memo(function GridCell(props: GridCellProps) {
   const { circuitId, circuitNumber, column, col, text, limReason, isActive, selected, edit, findings, conflict, conflictChoices, error, pending } = props;
-  const { editorRef, onPointerDown, onDoubleClick, onResolveConflict } = props;
+  const { editorRef, onEditorBlur, onPointerDown, onDoubleClick, onResolveConflict } = props;
   const severity: Severity | null = error ? 'error' : (findings?.worst.severity ?? null);
   const describedBy =
     [error ? cellErrorDomId(circuitId, column.key) : null, findings ? cellFindingDomId(circuitId, column.key) : null, conflict ? `${cellDomId(circuitId, column.key)}-conflict` : null]
@@ -407,6 +413,7 @@ const GridCell = memo(function GridCell(props: GridCellProps) {
         <CellEditor
           edit={edit}
           editorRef={editorRef}
+          onBlur={onEditorBlur}
           label={`${column.label} of circuit ${circuitNumber}`}
           errorId={error ? cellErrorDomId(circuitId, column.key) : undefined}
           numeric={column.valueKind === 'reading' || column.valueKind === 'number' || column.valueKind === 'integer'}
@@ -518,6 +525,7 @@ function FindingText({ cell, id }: { cell: CellFindings; id: string }) {
 interface CellEditorProps {
   edit: EditState;
   editorRef: RefObject<HTMLInputElement | null>;
+  onBlur: (event: FocusEvent<HTMLInputElement>) => void;
   label: string;
   errorId: string | undefined;
   numeric: boolean;
@@ -528,7 +536,7 @@ interface CellEditorProps {
  * browser's text box, not React state, so typing costs no re-render of the grid. The console reads
  * the value when the edit is committed.
  */
-function CellEditor({ edit, editorRef, label, errorId, numeric }: CellEditorProps) {
+function CellEditor({ edit, editorRef, onBlur, label, errorId, numeric }: CellEditorProps) {
   useLayoutEffect(() => {
     const input = editorRef.current;
     if (!input) return;
@@ -540,6 +548,7 @@ function CellEditor({ edit, editorRef, label, errorId, numeric }: CellEditorProp
     <input
       ref={editorRef}
       defaultValue={edit.draft}
+      onBlur={onBlur}
       aria-label={label}
       aria-invalid={errorId ? true : undefined}
       aria-describedby={errorId}

@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useMemo, useReducer, useRef, useState, type KeyboardEvent } from 'react';
+import { useCallback, useEffect, useMemo, useReducer, useRef, useState, type FocusEvent, type KeyboardEvent } from 'react';
 import { flushSync } from 'react-dom';
 import type { BoardDetail, Circuit } from '../../../../shared/schemas/boards.ts';
 import { columnByKey, columns as allColumns, isReadingKey, type ColumnDef } from '../../../../shared/schemas/columns.ts';
@@ -209,9 +209,13 @@ export function useGridController(options: GridControllerOptions) {
     focusGrid();
   }, [dispatch, focusGrid, setCellError]);
 
-  /** Saves the edit in progress and moves; returns false (and stays) when the text was refused. */
+  /**
+   * Saves the edit in progress and moves; returns false (and stays) when the text was refused.
+   * `keepFocus` leaves the keyboard focus where it is (the edit is being saved because the focus
+   * went elsewhere: the palette, the quick-entry line, another window).
+   */
   const commitEdit = useCallback(
-    (move: Move | null): boolean => {
+    (move: Move | null, keepFocus = false): boolean => {
       const s = stateRef.current;
       if (!s.edit) return true;
       const position = resolveActive(s, shapeRef.current);
@@ -221,12 +225,12 @@ export function useGridController(options: GridControllerOptions) {
       const result = applyChanges([{ ...position, before: read(position), after: text }], 'typed', `typed into ${label}`);
       if (result.refused.length > 0) {
         say(`Not saved — ${describeRefusals(result.refused)}`, 'error');
-        editorRef.current?.focus();
+        if (!keepFocus) editorRef.current?.focus();
         return false;
       }
       dispatch({ type: 'end-edit' });
       if (move) dispatch({ type: 'move', move });
-      focusGrid();
+      if (!keepFocus) focusGrid();
       return true;
     },
     [applyChanges, dispatch, focusGrid, read, say],
@@ -493,6 +497,17 @@ export function useGridController(options: GridControllerOptions) {
     };
   }, [copyText, pasteText, say]);
 
+  /** The text box lost the focus to something outside the grid: what was typed is saved, not dropped. */
+  const onEditorBlur = useCallback(
+    (event: FocusEvent<HTMLInputElement>) => {
+      if (!stateRef.current.edit || event.currentTarget !== editorRef.current) return;
+      const next = event.relatedTarget;
+      if (next instanceof Node && gridRef.current?.contains(next)) return;
+      commitEdit(null, true);
+    },
+    [commitEdit],
+  );
+
   const onCellPointerDown = useCallback(
     (position: GridPosition, extend: boolean) => {
       const s = stateRef.current;
@@ -549,6 +564,7 @@ export function useGridController(options: GridControllerOptions) {
     undo,
     redo,
     onKeyDown,
+    onEditorBlur,
     onCellPointerDown,
     onCellDoubleClick,
   };

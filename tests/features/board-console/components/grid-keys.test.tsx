@@ -200,6 +200,18 @@ describe('the grid keys', () => {
     expect(calls).toEqual([{ kind: 'field', circuitId: 13, field: 'kind', value: 'ring', how: 'typed' }]);
   });
 
+  it('when the palette is opened in the middle of typing a value, then the value is saved and Esc brings the focus back to the grid', async () => {
+    const { grid, user, calls } = renderConsole(threeCircuits());
+    await user.click(cellOf(grid, '2', 'Zs'));
+    await user.keyboard('0.77');
+    await user.keyboard('{Control>}k{/Control}');
+    await screen.findByRole('dialog', { name: 'Command palette' });
+    expect(calls).toEqual([{ kind: 'cell', circuitId: 12, column: 'zs', text: '0.77', reason: null, how: 'typed' }]);
+    await user.keyboard('{Escape}');
+    await waitFor(() => expect(document.activeElement).toBe(grid));
+    expect(where(grid)).toBe('2 Zs');
+  });
+
   it('when the board is locked, then typing does not start an edit and says why', async () => {
     const { grid, user, calls } = renderConsole(
       boardDetail([circuit(11, '1', { zs: '0.44' })], { state: 'locked', lockedBy: { id: 3, name: 'Ruth' } }),
