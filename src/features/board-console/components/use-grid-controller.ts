@@ -120,6 +120,16 @@ export function useGridController(options: GridControllerOptions) {
     }
   }, [state.active, shape, columns, dispatch]);
 
+  // The circuit being typed into was removed by someone else: the edit has nowhere to go.
+  useEffect(() => {
+    const s = stateRef.current;
+    if (s.edit && s.active && !indexOf(shape, s.active)) {
+      say('That circuit was removed by someone else meanwhile: what you typed was not saved.', 'error');
+      dispatch({ type: 'end-edit' });
+      gridRef.current?.focus({ preventScroll: true });
+    }
+  }, [shape, dispatch, say]);
+
   const read = useCallback((position: GridPosition) => {
     const circuit = circuitsRef.current.get(position.circuitId);
     return circuit ? cellText(circuit, position.column) : '';
@@ -218,6 +228,13 @@ export function useGridController(options: GridControllerOptions) {
     (move: Move | null, keepFocus = false): boolean => {
       const s = stateRef.current;
       if (!s.edit) return true;
+      if (s.active && !indexOf(shapeRef.current, s.active)) {
+        // Someone else removed the circuit while this typist was typing into it: nothing to save into.
+        say('That circuit was removed by someone else meanwhile: what you typed was not saved.', 'error');
+        dispatch({ type: 'end-edit' });
+        if (!keepFocus) focusGrid();
+        return true;
+      }
       const position = resolveActive(s, shapeRef.current);
       if (!position) return true;
       const text = editorRef.current?.value ?? s.edit.draft;

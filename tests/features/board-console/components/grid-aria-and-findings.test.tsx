@@ -207,3 +207,27 @@ describe('commands from the palette', () => {
     await waitFor(() => expect(activeCell(grid)?.closest('[role="row"]')).toHaveAttribute('aria-rowindex', '5'));
   });
 });
+
+describe('the quick-entry line in the console', () => {
+  it('when a line is dictated, then its values are written as dictated, the cursor follows to the last circuit, and the undo key takes them back', async () => {
+    const { grid, user, calls } = renderConsole(board());
+    await user.click(cellOf(grid, '1', 'Zs'));
+    await user.keyboard('{Control>}j{/Control}');
+    const line = screen.getByRole('textbox', { name: 'Quick entry' });
+    expect(document.activeElement).toBe(line);
+    await user.keyboard('1 .41 3 zs .62 le >200{Enter}');
+    expect(calls).toEqual([
+      { kind: 'cell', circuitId: 11, column: 'zs', text: '0.41', reason: null, how: 'dictated' },
+      { kind: 'cell', circuitId: 13, column: 'zs', text: '0.62', reason: null, how: 'dictated' },
+      { kind: 'cell', circuitId: 13, column: 'irLiveEarth', text: '>200', reason: null, how: 'dictated' },
+    ]);
+    expect(activeCell(grid)).toBe(cellOf(grid, '3', 'Zs'));
+    await user.keyboard('{Control>}z{/Control}');
+    expect(calls.slice(3).map((c) => (c.kind === 'cell' ? `${c.circuitId} ${c.column}=${c.text}` : ''))).toEqual(['13 irLiveEarth=2', '13 zs=', '11 zs=0.44']);
+    await user.keyboard('17 .5{Enter}');
+    expect(screen.getByRole('alert')).toHaveTextContent(/no circuit 17/);
+    expect(calls).toHaveLength(6);
+    await user.keyboard('{Escape}');
+    expect(document.activeElement).toBe(grid);
+  });
+});

@@ -212,6 +212,18 @@ describe('the grid keys', () => {
     expect(where(grid)).toBe('2 Zs');
   });
 
+  it('when the circuit being typed into is removed by someone else, then nothing is written elsewhere and the typist is told', async () => {
+    const { grid, user, calls, remoteUpdate } = renderConsole(threeCircuits());
+    await user.click(cellOf(grid, '2', 'Zs'));
+    await user.keyboard('0.5');
+    remoteUpdate((d) => ({ ...d, circuits: d.circuits.filter((c) => c.id !== 12) }));
+    expect(within(grid).queryByRole('textbox')).toBeNull();
+    expect(screen.getByRole('status')).toHaveTextContent('That circuit was removed by someone else meanwhile');
+    expect(document.activeElement).toBe(grid);
+    expect(where(grid)).toBe('3 Zs');
+    expect(calls).toEqual([]);
+  });
+
   it('when the board is locked, then typing does not start an edit and says why', async () => {
     const { grid, user, calls } = renderConsole(
       boardDetail([circuit(11, '1', { zs: '0.44' })], { state: 'locked', lockedBy: { id: 3, name: 'Ruth' } }),
