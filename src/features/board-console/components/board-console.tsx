@@ -1,4 +1,4 @@
-import { useCallback, useMemo, useRef, useState, type KeyboardEvent } from 'react';
+import { useCallback, useDeferredValue, useMemo, useRef, useState, type KeyboardEvent } from 'react';
 import type { BoardDetail } from '../../../../shared/schemas/boards.ts';
 import type { Role } from '../../../../shared/schemas/common.ts';
 import { columnByKey, isReadingKey, type ColumnKey } from '../../../../shared/schemas/columns.ts';
@@ -117,27 +117,30 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
   const stableFindings = useRef<{ signature: string; findings: readonly Finding[] }>({ signature: '', findings: [] });
   const findingsSignature = signatureOf(findings);
   if (findingsSignature !== stableFindings.current.signature) stableFindings.current = { signature: findingsSignature, findings };
-  const panelFindings = stableFindings.current.findings;
+  // The list is long and not where the typist looks while typing: it follows a moment later, after
+  // the keystroke's own frame (React renders the deferred value when the urgent work is done).
+  const panelFindings = useDeferredValue(stableFindings.current.findings);
 
   // Which cells still wait for the server (nothing does while everything is saved).
+  const isPending = sync.isPending;
+  const allSaved = sync.status.state === 'saved';
   const pending = useMemo(() => {
     const map = new Map<number, string>();
-    if (sync.status.state === 'saved' || !sync.isPending) return map;
-    for (const circuit of detail.circuits) {
+    if (allSaved || !isPending) return map;
+    for (const circuitId of grid.shape.rows) {
       let keys = '';
-      for (const column of grid.columns) if (sync.isPending(circuit.id, column.key)) keys += ` ${column.key}`;
-      if (keys) map.set(circuit.id, `${keys} `);
+      for (const column of grid.shape.columns) if (isPending(circuitId, column)) keys += ` ${column}`;
+      if (keys) map.set(circuitId, `${keys} `);
     }
     return map;
-  }, [sync, detail.circuits, grid.columns]);
+  }, [isPending, allSaved, grid.shape]);
 
-  const resolveConflict = useCallback(
-    (conflict: Conflict, choice: 'keep-theirs' | 'overwrite') => {
-      sync.resolveConflict(conflict.editId, choice);
-      ctxRef.current?.grid.focusGrid();
-    },
-    [sync],
-  );
+  // Stable across renders (it reads the sync engine from the context ref), so the grid's memoised
+  // rows and cells do not re-render because of it.
+  const resolveConflict = useCallback((conflict: Conflict, choice: 'keep-theirs' | 'overwrite') => {
+    ctxRef.current?.sync.resolveConflict(conflict.editId, choice);
+    ctxRef.current?.grid.focusGrid();
+  }, []);
 
   const active = grid.active;
   const activeConflict = active ? (conflictsByCell.get(active.circuitId)?.get(active.column) ?? null) : null;

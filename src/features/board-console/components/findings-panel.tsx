@@ -81,11 +81,11 @@ export const FindingsPanel = memo(function FindingsPanel({ findings, circuitOrde
         <p className="px-2 py-3 text-sm text-muted">{findings.length === 0 ? 'No findings: every value checked is within its limit.' : 'No finding of the severities shown.'}</p>
       ) : (
         <ul ref={listRef} aria-label="Findings" onKeyDown={onListKeyDown} className="min-h-0 flex-1 overflow-auto">
-          {visible.map((finding, i) => {
+          {visible.map((finding) => {
             const number = finding.circuitId === null ? null : circuitNumbers.get(finding.circuitId);
             const where = number ? `Circuit ${number}${finding.columns.length ? ` · ${columnWords(finding)}` : ''}` : 'Whole board';
             return (
-              <li key={`${finding.code}:${finding.circuitId ?? 'board'}:${finding.columns.join(',')}:${i}`} className="border-b border-line">
+              <li key={`${finding.code}:${finding.circuitId ?? 'board'}:${finding.columns.join(',')}:${finding.message}`} className="border-b border-line">
                 <button
                   type="button"
                   data-finding=""
