@@ -73,6 +73,7 @@ export interface CircuitTable {
   spur_ring_id: number | null;
   spur_origin_point: string | null;
   spur_length_m: number | null;
+  max_zs_by_hand_ohm: number | null;
   version: Generated<number>;
 }
 

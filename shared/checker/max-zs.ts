@@ -38,8 +38,8 @@ export type MaxZsResult =
       source: string;
       /** The device as the trade names it, e.g. "B32". */
       device: string;
-      /** The device family, or `rcd` for the TT limit set by an RCD. */
-      family: DeviceFamily | 'rcd';
+      /** The device family; `rcd` for the TT limit set by an RCD; `by-hand` for a limit the tester entered. */
+      family: DeviceFamily | 'rcd' | 'by-hand';
     }
   | { ok: false; reason: string };
 

@@ -214,6 +214,9 @@ function zsLimitOf(c: CheckCircuit, ctx: BoardContext): ZsLimit {
   }
   const timeAssumed = c.maxDisconnectionS === null;
   const timeS = c.maxDisconnectionS ?? defaultDisconnectionTimeS({ earthing: ctx.earthing, kind: c.kind, ratingA: c.ratingA }).seconds;
+  if (c.maxZsByHandOhm != null && (c.deviceStandard.trim() === '' || c.ratingA === null)) {
+    return byHand(c, c.maxZsByHandOhm, 'the device is not fully recorded', timeS, timeAssumed);
+  }
   if (c.deviceStandard.trim() === '') {
     return { result: { ok: false, reason: 'no protective device is recorded' }, timeS, timeAssumed, rcdBased: false };
   }
@@ -221,7 +224,28 @@ function zsLimitOf(c: CheckCircuit, ctx: BoardContext): ZsLimit {
     return { result: { ok: false, reason: 'the device rating In is not recorded' }, timeS, timeAssumed, rcdBased: false };
   }
   const result = maxZs({ standard: c.deviceStandard, type: c.deviceType, ratingA: c.ratingA, disconnectionTimeS: timeS, u0: ctx.u0 });
+  if (!result.ok && c.maxZsByHandOhm != null) return byHand(c, c.maxZsByHandOhm, result.reason, timeS, timeAssumed);
   return { result, timeS, timeAssumed, rcdBased: false };
+}
+
+/**
+ * A limit the tester entered by hand because the tables do not cover the device: used, and
+ * labelled as such so a reviewer sees it was not looked up.
+ */
+function byHand(c: CheckCircuit, limitOhm: number, why: string, timeS: number, timeAssumed: boolean): ZsLimit {
+  const device = [c.deviceStandard.trim(), c.deviceType.trim(), c.ratingA === null ? '' : `${c.ratingA} A`].filter(Boolean).join(' ') || 'device';
+  return {
+    result: {
+      ok: true,
+      limitOhm,
+      source: `entered by hand on this schedule (not in the published tables: ${why})`,
+      device: `${device} (limit given by hand)`,
+      family: 'by-hand',
+    },
+    timeS,
+    timeAssumed,
+    rcdBased: false,
+  };
 }
 
 function kindText(c: CheckCircuit): string {

@@ -71,6 +71,8 @@ export const circuitFieldsSchema = z.object({
   spurOriginPoint: z.string().max(60).nullable(),
   /** For a spur: length of the spur cable (m), when known. */
   spurLengthM: z.number().positive().max(1000).nullable(),
+  /** A maximum Zs (Ω) entered by hand for a device the published tables do not cover. */
+  maxZsByHandOhm: z.number().positive().max(200).nullable(),
 });
 export type CircuitFields = z.infer<typeof circuitFieldsSchema>;
 

@@ -112,6 +112,7 @@ function generateBoard(count: number): CheckInput {
       spurRingId: spurRing ? spurRing.id : null,
       spurOriginPoint: kind === 'spur' ? 'socket 4' : null,
       spurLengthM: kind === 'spur' ? 4 : null,
+      maxZsByHandOhm: null,
       cells,
     });
   }

@@ -718,6 +718,7 @@ function buildBoard(spec: BoardSpec): DemoBoard {
     spurRingNumber: circuit.spur?.ringNumber ?? null,
     spurOriginPoint: circuit.spur?.originPoint ?? null,
     spurLengthM: circuit.spur ? circuit.lengthM : null,
+    maxZsByHandOhm: null,
     cells: cellsByCircuit[index] ?? {},
   }));
 

@@ -78,6 +78,7 @@ export function radial(spec: CircuitSpec = {}): CheckCircuit {
     spurRingId: null,
     spurOriginPoint: null,
     spurLengthM: null,
+    maxZsByHandOhm: null,
     ...fields,
     cells: toCells(cells ?? cleanRadialCells),
   };

@@ -44,6 +44,7 @@ function circuitArbitrary(id: number, ids: readonly number[]): fc.Arbitrary<Chec
     spurRingId: fc.option(fc.constantFrom(...ids, 999), { nil: null }),
     spurOriginPoint: fc.constantFrom(null, 'socket 3', '0.5', '40%', 'kitchen'),
     spurLengthM: fc.constantFrom(null, 3, 8),
+    maxZsByHandOhm: fc.constantFrom(null, 0.5, 2.4),
     cells,
   });
 }

@@ -81,6 +81,21 @@ const cases: Case[] = [
     expect: { code: 'zs-limit-unknown', severity: 'warning', limit: null, messageIncludes: 'by hand' },
   },
   {
+    // The limit is the tester's own figure (e.g. from the maker's data), so the expected value is
+    // simply that figure: 0.50 Ω given, Zs 0.62 Ω measured.
+    name: 'an unknown device with a maximum Zs given by hand: checked against it, source says so',
+    input: board([radial({ deviceStandard: '60947-2', maxZsByHandOhm: 0.5, cells: { ...cleanRadialCells } })]),
+    codes: ['zs-over-max'],
+    expect: { code: 'zs-over-max', severity: 'error', limit: '≤ 0.50 Ω', sourceIncludes: 'entered by hand', messageIncludes: 'limit given by hand' },
+  },
+  {
+    // A figure given by hand never overrides a published table: B20 stays 2.19 Ω (BS 7671:2018 Table 41.3).
+    name: 'a device in the tables with a maximum Zs given by hand: the table still rules',
+    input: board([radial({ maxZsByHandOhm: 0.5, cells: { ...cleanRadialCells } })]),
+    codes: [],
+    expect: { code: '' },
+  },
+  {
     name: 'Zs well above Zdb + R1+R2',
     input: board([radial({ cells: { ...cleanRadialCells, zs: '0.95' } })]),
     codes: ['zs-above-expected'],

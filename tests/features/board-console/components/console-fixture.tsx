@@ -34,6 +34,7 @@ const blankFields: Omit<CircuitFields, 'number'> = {
   spurRingId: null,
   spurOriginPoint: null,
   spurLengthM: null,
+  maxZsByHandOhm: null,
 };
 
 /** A circuit with the given number and readings (text per reading key). */

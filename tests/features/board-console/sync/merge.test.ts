@@ -14,7 +14,7 @@ function circuit(id: number, overrides: Partial<Circuit> = {}): Circuit {
     id, boardId: 1, position: id, version: 1, number: String(id), phase: null, description: `Circuit ${id}`, kind: 'radial',
     wiringType: 'A', referenceMethod: 'C', points: 4, liveCsaMm2: 1.5, cpcCsaMm2: 1, maxDisconnectionS: 0.4, deviceStandard: '60898',
     deviceType: 'B', ratingA: 6, breakingKa: 6, rcdType: 'A', rcdRatedResidualMa: 30, afdd: null, remarks: '', spurRingId: null,
-    spurOriginPoint: null, spurLengthM: null, cells: {}, ...overrides,
+    spurOriginPoint: null, spurLengthM: null, maxZsByHandOhm: null, cells: {}, ...overrides,
   };
 }
 
