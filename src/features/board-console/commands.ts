@@ -651,6 +651,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
  */
 export const gridKeyRows: ReadonlyArray<{ label: string; keys: readonly string[]; words?: readonly string[] }> = [
   { label: 'Type over the cell (short forms are written out: .44 → 0.44, v → ✓, x → ✗, na → N/A)', keys: [], words: ['any character'] },
+  { label: 'In a ✓/✗ column: tick or cross, saved at once, and on down the column', keys: [], words: ['v', 'x'] },
   { label: 'Save and go down the column (from the last circuit, to the top of the next column)', keys: ['Enter'] },
   { label: 'Save and go up the column', keys: ['Shift+Enter'] },
   { label: 'Save and go right / left (wraps to the next / previous circuit)', keys: ['Tab', 'Shift+Tab'] },

@@ -378,6 +378,21 @@ export function useGridController(options: GridControllerOptions) {
     focusGrid();
   }, [cancelEdit, focusGrid, refuseIfLocked, replay, say]);
 
+  /** A tick or cross typed on a ✓/✗ cell: saved at once, and the cursor goes down the column. */
+  const tick = useCallback(
+    (position: GridPosition, key: string) => {
+      const circuit = circuitsRef.current.get(position.circuitId);
+      const label = `${columnByKey[position.column].label} of circuit ${circuit?.number ?? ''}`;
+      const result = applyChanges([{ ...position, before: read(position), after: key }], 'typed', `typed into ${label}`);
+      if (result.refused.length > 0) {
+        say(`Not saved — ${describeRefusals(result.refused)}`, 'error');
+        return;
+      }
+      dispatch({ type: 'move', move: 'down-column' });
+    },
+    [applyChanges, dispatch, read, say],
+  );
+
   const onKeyDown = useCallback(
     (event: KeyboardEvent<HTMLDivElement>) => {
       const native = event.nativeEvent;
@@ -479,10 +494,17 @@ export function useGridController(options: GridControllerOptions) {
       const altGraph = native.getModifierState?.('AltGraph') ?? false;
       if (event.key.length === 1 && (plain || altGraph) && !commandCharacters.has(event.key)) {
         event.preventDefault();
+        const position = resolveActive(s, shapeRef.current);
+        // In a ✓/✗ column one key is the whole value: v (or ✓) ticks, x (or ✗) crosses, and the
+        // cursor goes on down at once. Anything else (N/A, LIM…) is typed as usual.
+        if (position && columnByKey[position.column].valueKind === 'pass-fail' && /^[vVxX✓✗]$/.test(event.key)) {
+          tick(position, event.key);
+          return;
+        }
         startEdit('replace', event.key);
       }
     },
-    [cancelEdit, clearSelection, commandCharacters, commitEdit, dispatch, startEdit],
+    [cancelEdit, clearSelection, commandCharacters, commitEdit, dispatch, startEdit, tick],
   );
 
   // Copy and paste of ranges: the browser's own copy/paste events (they carry the clipboard

@@ -253,3 +253,18 @@ describe('the grid keys', () => {
     expect(where(grid)).toBe('3 Zs');
   });
 });
+
+describe('ticks', () => {
+  it('when v or x is typed on a ✓/✗ cell, then the tick or cross is saved at once and the cursor goes down', async () => {
+    const { grid, user, calls } = renderConsole(threeCircuits());
+    await user.click(cellOf(grid, '1', 'Polarity'));
+    await user.keyboard('vx');
+    expect(calls).toEqual([
+      { kind: 'cell', circuitId: 11, column: 'polarity', text: '✓', reason: null, how: 'typed' },
+      { kind: 'cell', circuitId: 12, column: 'polarity', text: '✗', reason: null, how: 'typed' },
+    ]);
+    expect(activeCell(grid)).toBe(cellOf(grid, '3', 'Polarity'));
+    await user.keyboard('na{Enter}');
+    expect(calls[2]).toMatchObject({ circuitId: 13, column: 'polarity', text: 'N/A' });
+  });
+});
