@@ -1,6 +1,8 @@
+import { useQueryClient } from '@tanstack/react-query';
 import { NavLink, Outlet, useNavigation } from 'react-router-dom';
 import { useMe } from '../features/auth/api/get-me.ts';
 import { useSignOut } from '../features/auth/api/sign-out.ts';
+import { stopBoardSync } from '../features/board-console/sync/use-board-sync.ts';
 
 const navLinkClass = ({ isActive }: { isActive: boolean }) =>
   `rounded px-2 py-1 font-medium ${isActive ? 'bg-accent-soft text-accent' : 'text-ink hover:bg-accent-soft'}`;
@@ -17,7 +19,11 @@ const navLinkClass = ({ isActive }: { isActive: boolean }) =>
 export function AppLayout() {
   const { data: me } = useMe();
   const signOut = useSignOut();
+  const queryClient = useQueryClient();
   const navigation = useNavigation();
+  // Once signed out, no board engine may send anything more under the ended session; what waits
+  // stays stored under the person who typed it, for their next sign-in.
+  const signOutAndStopSync = () => signOut.mutate(undefined, { onSuccess: () => stopBoardSync(queryClient) });
 
   return (
     <div className="flex h-dvh flex-col">
@@ -58,7 +64,7 @@ export function AppLayout() {
           )}
           <button
             type="button"
-            onClick={() => signOut.mutate()}
+            onClick={signOutAndStopSync}
             aria-disabled={signOut.isPending || undefined}
             className="rounded border border-line-strong px-2 py-0.5 font-medium hover:bg-accent-soft aria-disabled:opacity-70"
           >

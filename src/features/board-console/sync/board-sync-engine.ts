@@ -44,6 +44,8 @@ export interface BoardSyncEngineOptions {
   timings?: BoardSyncTimings;
   /** Where the outbox is kept; localStorage by default, null for memory only. */
   storage?: Storage | null;
+  /** The signed-in person whose edits these are: the stored outbox is theirs alone. */
+  ownerId?: number | null;
 }
 
 /** Statuses that mean "no answer worth acting on yet": keep the edit and try again later. */
@@ -83,6 +85,7 @@ export class BoardSyncEngine {
   private readonly queryClient: QueryClient;
   private readonly timings: BoardSyncTimings;
   private readonly storage: Storage | null;
+  private readonly ownerId: number | null;
   private readonly overlay = new PendingOverlay();
   private readonly listeners = new Set<() => void>();
 
@@ -117,7 +120,8 @@ export class BoardSyncEngine {
     this.boardId = boardId;
     this.timings = options.timings ?? defaultTimings;
     this.storage = options.storage === undefined ? browserStorage() : options.storage;
-    this.entries = readOutbox(this.storage, boardId);
+    this.ownerId = options.ownerId ?? null;
+    this.entries = readOutbox(this.storage, boardId, this.ownerId);
     for (const entry of this.entries) this.ownIds.add(entry.edit.id);
     this.snapshot = this.makeSnapshot();
   }
@@ -190,7 +194,7 @@ export class BoardSyncEngine {
 
   /** Stores the outbox and tells the readers. Call after every change of `entries`. */
   private commit(): void {
-    writeOutbox(this.storage, this.boardId, this.entries, this.ownIds);
+    writeOutbox(this.storage, this.boardId, this.entries, this.ownIds, this.ownerId);
     this.emit();
   }
 

@@ -14,7 +14,12 @@ export interface OutboxEntry {
   conflict?: Conflict;
 }
 
-export const outboxStorageKey = (boardId: number) => `boardwalk.outbox.${boardId}`;
+/**
+ * Outboxes are kept per person: edits typed by one person are only ever sent under that person's
+ * session, never by whoever opens the board next in the same browser.
+ */
+export const outboxStorageKey = (boardId: number, ownerId: number | null = null) =>
+  ownerId === null ? `boardwalk.outbox.${boardId}` : `boardwalk.outbox.${ownerId}.${boardId}`;
 
 const fieldKeys = Object.keys(circuitFieldsSchema.shape) as [keyof z.infer<typeof circuitFieldsSchema>, ...(keyof z.infer<typeof circuitFieldsSchema>)[]];
 
@@ -66,9 +71,9 @@ export function browserStorage(): Storage | null {
   }
 }
 
-function readRaw(storage: Storage, boardId: number): unknown[] {
+function readRaw(storage: Storage, boardId: number, ownerId: number | null): unknown[] {
   try {
-    const text = storage.getItem(outboxStorageKey(boardId));
+    const text = storage.getItem(outboxStorageKey(boardId, ownerId));
     if (!text) return [];
     const parsed = storedSchema.safeParse(JSON.parse(text));
     return parsed.success ? parsed.data.entries : [];
@@ -86,10 +91,10 @@ function rawId(raw: unknown): string | undefined {
 }
 
 /** The board's outbox in the order it was written. Entries this code cannot read are skipped (and left stored). */
-export function readOutbox(storage: Storage | null, boardId: number): OutboxEntry[] {
+export function readOutbox(storage: Storage | null, boardId: number, ownerId: number | null = null): OutboxEntry[] {
   if (!storage) return [];
   const entries: OutboxEntry[] = [];
-  for (const raw of readRaw(storage, boardId)) {
+  for (const raw of readRaw(storage, boardId, ownerId)) {
     const parsed = entrySchema.safeParse(raw);
     if (parsed.success && parsed.data.edit.boardId === boardId) entries.push(parsed.data);
   }
@@ -101,11 +106,17 @@ export function readOutbox(storage: Storage | null, boardId: number): OutboxEntr
  * entries with other ids (written by another tab with the same board open, or unreadable) are
  * kept, so two tabs never wipe each other's edits.
  */
-export function writeOutbox(storage: Storage | null, boardId: number, entries: readonly OutboxEntry[], ownIds: ReadonlySet<string>): void {
+export function writeOutbox(
+  storage: Storage | null,
+  boardId: number,
+  entries: readonly OutboxEntry[],
+  ownIds: ReadonlySet<string>,
+  ownerId: number | null = null,
+): void {
   if (!storage) return;
-  const key = outboxStorageKey(boardId);
+  const key = outboxStorageKey(boardId, ownerId);
   try {
-    const others = readRaw(storage, boardId).filter((raw) => {
+    const others = readRaw(storage, boardId, ownerId).filter((raw) => {
       const id = rawId(raw);
       return id === undefined || !ownIds.has(id);
     });

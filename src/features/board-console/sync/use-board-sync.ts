@@ -21,10 +21,22 @@ function slotsOf(queryClient: QueryClient) {
   return boards;
 }
 
+/**
+ * The signed-in person, read from the cache the app's route guard fills before any page shows
+ * (key `['auth', 'me']`, holding the user or null).
+ */
+function signedInUserId(queryClient: QueryClient): number | null {
+  const me = queryClient.getQueryData<{ id: number } | null>(['auth', 'me']);
+  return me?.id ?? null;
+}
+
 function engineFor(queryClient: QueryClient, boardId: number): BoardSyncEngine {
   const boards = slotsOf(queryClient);
   let slot = boards.get(boardId);
-  if (!slot) boards.set(boardId, (slot = { engine: new BoardSyncEngine(queryClient, boardId), holders: 0 }));
+  if (!slot) {
+    const engine = new BoardSyncEngine(queryClient, boardId, { ownerId: signedInUserId(queryClient) });
+    boards.set(boardId, (slot = { engine, holders: 0 }));
+  }
   return slot.engine;
 }
 

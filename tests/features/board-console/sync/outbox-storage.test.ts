@@ -39,4 +39,12 @@ describe('outbox storage', () => {
     expect(() => writeOutbox(null, 5, [cellEntry('a', '0.4')], new Set(['a']))).not.toThrow();
     expect(readOutbox(null, 5)).toEqual([]);
   });
+
+  it('when two people typed on the same board in this browser, then each reads only their own edits', () => {
+    writeOutbox(localStorage, 5, [cellEntry('alice', '0.4')], new Set(['alice']), 11);
+    writeOutbox(localStorage, 5, [cellEntry('bob', '0.7')], new Set(['bob']), 12);
+    expect(readOutbox(localStorage, 5, 11).map((e) => e.edit.id)).toEqual(['alice']);
+    expect(readOutbox(localStorage, 5, 12).map((e) => e.edit.id)).toEqual(['bob']);
+    expect(outboxStorageKey(5, 11)).not.toBe(outboxStorageKey(5, 12));
+  });
 });
