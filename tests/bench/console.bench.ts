@@ -19,6 +19,7 @@
  */
 import { performance } from 'node:perf_hooks';
 import type { Page } from 'playwright-core';
+import { columns } from '../../shared/schemas/columns.ts';
 import { demoTester, launchBrowser, startDemoServer } from '../helpers/browser.ts';
 
 interface ApiCell {
@@ -35,17 +36,16 @@ interface ApiCircuit {
 const VALUES = 200;
 const LATENCY_TARGET_MS = 16;
 const RATIO_TARGET = 1.1;
-/** Reading columns typed, in grid order, with the columns the arrows step over after each. */
-const SCRIPT_COLUMNS: ReadonlyArray<{ column: string; stepOver: number }> = [
-  { column: 'r1PlusR2', stepOver: 1 },
-  { column: 'irTestVoltage', stepOver: 0 },
-  { column: 'irLiveLive', stepOver: 0 },
-  { column: 'irLiveEarth', stepOver: 0 },
-  { column: 'polarity', stepOver: 0 },
-  { column: 'zs', stepOver: 0 },
-];
+/** Reading columns typed, in grid order (the first 200 values of these). */
+const SCRIPT_COLUMNS: readonly string[] = ['r1PlusR2', 'irTestVoltage', 'irLiveLive', 'irLiveEarth', 'polarity', 'zs'];
 /** Every reading column, for the whole-board keystroke figure. */
-const ALL_READING_COLUMNS = ['ringR1', 'ringRn', 'ringR2', 'r1PlusR2', 'r2', 'irTestVoltage', 'irLiveLive', 'irLiveEarth', 'polarity', 'zs', 'rcdTimeMs', 'rcdButton', 'afddButton'];
+const ALL_READING_COLUMNS: readonly string[] = columns.filter((c) => c.storage === 'reading').map((c) => c.key);
+const COLUMN_ORDER: readonly string[] = columns.map((c) => c.key);
+
+/** → presses from the top of the column after `column` to the top of `next` (the columns between are skipped). */
+function stepOver(column: string, next: string | undefined): number {
+  return next === undefined ? 0 : COLUMN_ORDER.indexOf(next) - COLUMN_ORDER.indexOf(column) - 1;
+}
 
 /** A key press as Playwright names it, and how many physical keys it takes. */
 interface Press {
@@ -153,7 +153,7 @@ async function main() {
     const seeded = await getCircuits();
 
     // The script: the seeded readings, column by column. Empty the columns first so every value typed is a real write.
-    const script = SCRIPT_COLUMNS.map(({ column, stepOver }) => ({ column, stepOver, values: seeded.map((c) => c.cells[column]?.text ?? '') }));
+    const script = SCRIPT_COLUMNS.map((column, i) => ({ column, stepOver: stepOver(column, SCRIPT_COLUMNS[i + 1]), values: seeded.map((c) => c.cells[column]?.text ?? '') }));
     for (const { column } of script) {
       for (const circuit of seeded) {
         const cell = circuit.cells[column];
@@ -187,7 +187,7 @@ async function main() {
     const expected: Array<{ circuitId: number; column: string; text: string }> = [];
     const perColumn: Array<{ column: string; keys: number; characters: number; complete: boolean }> = [];
     const typingStarted = performance.now();
-    for (const { column, stepOver, values } of script) {
+    for (const { column, stepOver: stepsOver, values } of script) {
       if (typedValues >= VALUES) break;
       let columnKeys = 0;
       let columnCharacters = 0;
@@ -209,8 +209,8 @@ async function main() {
         if (stored !== '') typedValues += 1;
       }
       if (complete) {
-        for (let n = 0; n < stepOver; n++) await page.keyboard.press('ArrowRight');
-        columnKeys += stepOver;
+        for (let n = 0; n < stepsOver; n++) await page.keyboard.press('ArrowRight');
+        columnKeys += stepsOver;
       }
       keysPressed += columnKeys;
       characters += columnCharacters;
@@ -230,18 +230,16 @@ async function main() {
     let boardKeys = 0;
     let boardCharacters = 0;
     const boardColumns: string[] = [];
-    for (const column of ALL_READING_COLUMNS) {
+    for (const [i, column] of ALL_READING_COLUMNS.entries()) {
       const values = seeded.map((c) => c.cells[column]?.text ?? '');
-      const keys = planColumn(column, values).reduce((sum, step) => sum + step.presses.reduce((k, p) => k + p.keys, 0), 0);
+      const keys =
+        planColumn(column, values).reduce((sum, step) => sum + step.presses.reduce((k, p) => k + p.keys, 0), 0) + stepOver(column, ALL_READING_COLUMNS[i + 1]);
       const chars = values.reduce((sum, v) => sum + [...v].length, 0);
       const empty = values.filter((v) => v === '').length;
       boardKeys += keys;
       boardCharacters += chars;
       boardColumns.push(`${column} ${keys}/${chars}${empty ? ` (${empty} empty)` : ''}`);
     }
-    // → over the detail columns between reading columns: RCD type and IΔn after Zs, AFDD after the RCD button.
-    boardKeys += 2 + 1;
-
     const all = figures(samples.map((s) => s.ms));
     const enter = figures(samples.filter((s) => s.key === 'Enter').map((s) => s.ms));
     const others = figures(samples.filter((s) => s.key !== 'Enter').map((s) => s.ms));

@@ -1,5 +1,6 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { columns } from '../../shared/schemas/columns.ts';
 import { demoTester, launchBrowser, startDemoServer, type DemoServer } from '../helpers/browser.ts';
 
 /**
@@ -126,12 +127,13 @@ describe('typing a whole board with the keyboard only', () => {
     for (const set of typed) {
       set.stored = set.values.map((v) => (v === 'na' ? 'N/A' : v === 'v' ? '✓' : v.startsWith('.') ? `0${v}` : v));
     }
-    // Detail and other columns between the reading columns: the arrows step over them.
-    const stepOver: Record<string, number> = { r1PlusR2: 1, zs: 2, rcdButton: 1 };
+    // Columns between one typed column and the next (details, the unused R2): → steps over them.
+    const order = columns.map((c) => c.key as string);
+    const stepOver = (column: string, next: string | undefined) => (next ? order.indexOf(next) - order.indexOf(column) - 1 : 0);
 
     // The cursor starts on r1 of the first circuit; Enter goes down, and from the last circuit to
     // the top of the next column.
-    for (const set of typed) {
+    for (const [t, set] of typed.entries()) {
       for (let i = 0; i < circuits.length; i++) {
         if (set.ditto && i > 0) {
           await page.keyboard.press("Control+'");
@@ -143,7 +145,7 @@ describe('typing a whole board with the keyboard only', () => {
           await page.keyboard.press('Enter');
         }
       }
-      for (let n = 0; n < (stepOver[set.column] ?? 0); n++) await page.keyboard.press('ArrowRight');
+      for (let n = 0; n < stepOver(set.column, typed[t + 1]?.column); n++) await page.keyboard.press('ArrowRight');
     }
     expect(await gridHasFocus(page)).toBe(true);
 

@@ -1,6 +1,12 @@
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
+import { columns } from '../../../../shared/schemas/columns.ts';
 import { activeCell, boardDetail, cellOf, circuit, renderConsole } from './console-fixture.tsx';
+
+/** The label of the column right of `key` in the grid. */
+function columnAfter(key: string): string {
+  return columns[columns.findIndex((c) => c.key === key) + 1]!.label;
+}
 
 /** "circuit column" of the active cell, read from the grid's own headers. */
 function where(grid: HTMLElement): string {
@@ -49,7 +55,7 @@ describe('the grid keys', () => {
     await user.click(cellOf(grid, '3', 'Zs'));
     await user.keyboard('0.8{Enter}');
     expect(calls).toHaveLength(1);
-    expect(where(grid)).toBe('1 RCD type');
+    expect(where(grid)).toBe(`1 ${columnAfter('zs')}`);
   });
 
   it('when Shift+Enter is pressed while typing, then the value is written and the cursor goes up', async () => {
@@ -123,7 +129,7 @@ describe('the grid keys', () => {
     const { grid, user, calls } = renderConsole(threeCircuits());
     await user.click(cellOf(grid, '1', 'Zs'));
     await user.keyboard('{Shift>}{ArrowDown}{ArrowDown}{ArrowRight}{/Shift}');
-    expect(cellOf(grid, '3', 'RCD type')).toHaveAttribute('aria-selected', 'true');
+    expect(cellOf(grid, '3', columnAfter('zs'))).toHaveAttribute('aria-selected', 'true');
     expect(cellOf(grid, '2', 'Zs')).toHaveAttribute('aria-selected', 'true');
     expect(cellOf(grid, '2', 'L-E')).toHaveAttribute('aria-selected', 'false');
     await user.keyboard('{Control>}d{/Control}');
@@ -131,7 +137,7 @@ describe('the grid keys', () => {
       { kind: 'cell', circuitId: 12, column: 'zs', text: '0.44', reason: null, how: 'filled' },
       { kind: 'cell', circuitId: 13, column: 'zs', text: '0.44', reason: null, how: 'filled' },
     ]);
-    // RCD type of circuit 1 is empty (none), as are the others: nothing to write there.
+    // The column right of Zs is empty on every circuit: nothing to write there.
     expect(calls.filter((c) => c.kind === 'field')).toEqual([]);
   });
 
