@@ -24,8 +24,9 @@
  * cell grammar that are values — N/A, NA, LIM, ✓, ✗, v, x, ok, yes, no, pass, fail… — are never
  * column words. A circuit whose number spells a column word can only start the line.
  *
- * Values are kept exactly as typed (`.44` stays `.44`: the cell holds text as typed and the
- * checker reads it as 0.44). A column may be given once per circuit per line.
+ * The parser hands values on exactly as typed; the console writes them as every grid edit is
+ * written, with the trade's short forms spelt out (`.44` → `0.44`, `v` → `✓`, `na` → `N/A`; see
+ * `normaliseReading`). A column may be given once per circuit per line.
  */
 
 import { columnByKey, columns, type ColumnDef, type ColumnKey } from '../../../../shared/schemas/columns.ts';
