@@ -1,5 +1,6 @@
 import type { Browser, BrowserContext, Page, Route } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { outboxStorageKey } from '../../src/features/board-console/sync/outbox-storage.ts';
 import { demoTester, launchBrowser, startDemoServer, type DemoServer } from '../helpers/browser.ts';
 
 /**
@@ -67,6 +68,9 @@ describe('offline', () => {
     const context = await browser.newContext();
     expect((await context.request.post(`${server.url}/api/auth/sign-in`, { data: demoTester })).status()).toBe(200);
     const { boardId, circuits } = await pickBoard(context);
+    const { user } = await api<{ user: { id: number } }>(context, '/api/auth/me');
+    // The outbox is kept per person.
+    const outboxKey = outboxStorageKey(boardId, user.id);
     const [first, second, third, fourth] = [circuits[2]!, circuits[3]!, circuits[4]!, circuits[5]!];
 
     const page = await context.newPage();
@@ -80,7 +84,7 @@ describe('offline', () => {
     await quickEntry(page, `${first.number} zs 0.83`);
     await expect.poll(() => saysOffline(page, 3), { timeout: 5000 }).toBe(true);
     expect(await cellText(page, first.id, 'zs')).toBe('0.83');
-    const stored = await page.evaluate((key) => localStorage.getItem(key), `boardwalk.outbox.${boardId}`);
+    const stored = await page.evaluate((key) => localStorage.getItem(key), outboxKey);
     expect((JSON.parse(stored ?? '{}') as { entries?: unknown[] }).entries).toHaveLength(3);
 
     // Reload the page with the writes still failing (the page itself and the board load).
@@ -107,7 +111,7 @@ describe('offline', () => {
     await expect.poll(() => page.getByText(/^✓\s*saved$/).first().isVisible(), { timeout: 5000 }).toBe(true);
     const { history } = await api<{ history: { newText: string }[] }>(context, `/api/boards/${boardId}/circuits/${first.id}/cells/zs/history`);
     expect(history.slice(-2).map((h) => h.newText)).toEqual(['0.81', '0.83']);
-    expect(await page.evaluate((key) => localStorage.getItem(key), `boardwalk.outbox.${boardId}`)).toBeNull();
+    expect(await page.evaluate((key) => localStorage.getItem(key), outboxKey)).toBeNull();
 
     await context.close();
   });
