@@ -1,20 +1,22 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { columns } from '../../shared/schemas/columns.ts';
+import type { ReadingKey } from '../../shared/schemas/columns.ts';
 import { demoTester, launchBrowser, startDemoServer, type DemoServer } from '../helpers/browser.ts';
+import { gridColumnKeys, planTyping } from '../helpers/keystroke-plan.ts';
 
 /**
- * A whole single-phase board typed with the keyboard alone: sign-in, every reading of every circuit
- * column by column, a spur linked and a limitation marked from the command palette. Afterwards the
- * API must hold every value. A listener in the page counts pointer events; it must stay at 0.
+ * A whole single-phase board typed with the keyboard alone: sign-in, every reading each circuit
+ * needs, column by column (Enter passing the cells a circuit does not need), a spur linked and a
+ * limitation marked from the command palette. Afterwards the API must hold every value in its cell.
+ * A listener in the page counts pointer events; it must stay at 0.
  */
 
 interface ApiCircuit {
   id: number;
   number: string;
-  kind: string;
+  kind: 'ring' | 'radial' | 'spur' | 'distribution';
   afdd: 'yes' | 'no' | null;
-  rcdType: string | null;
+  rcdType: 'AC' | 'A' | 'F' | 'B' | 'S-AC' | 'S-A' | null;
   spurRingId: number | null;
   spurOriginPoint: string | null;
   spurLengthM: number | null;
@@ -108,44 +110,37 @@ describe('typing a whole board with the keyboard only', () => {
     const circuits = await boardFromPage(page, board.id);
     expect(circuits.length).toBeGreaterThanOrEqual(12);
 
-    // What to type in each reading column, circuit by circuit, and what the cell must then hold.
+    // What to type in each reading column, circuit by circuit, as the cell must then hold it ('' for
+    // nothing: a reading the circuit does not need is left as it is, and Enter passes it when empty).
     const ring = (c: ApiCircuit) => c.kind === 'ring';
-    const typed: Array<{ column: string; values: string[]; stored: string[]; ditto?: boolean }> = [
-      { column: 'ringR1', values: circuits.map((c, i) => (ring(c) ? `.${41 + i}` : 'na')), stored: [] },
-      { column: 'ringRn', values: circuits.map((c, i) => (ring(c) ? `.${42 + i}` : 'na')), stored: [] },
-      { column: 'ringR2', values: circuits.map((c, i) => (ring(c) ? `.${68 + i}` : 'na')), stored: [] },
-      { column: 'r1PlusR2', values: circuits.map((_, i) => `.${21 + i}`), stored: [] },
-      { column: 'irTestVoltage', values: circuits.map(() => '500'), stored: [], ditto: true },
-      { column: 'irLiveLive', values: circuits.map((_, i) => (i % 3 === 0 ? '>299' : '>200')), stored: [] },
-      { column: 'irLiveEarth', values: circuits.map((_, i) => (i === 2 ? '180' : '>200')), stored: [] },
-      { column: 'polarity', values: circuits.map(() => 'v'), stored: [] },
-      { column: 'zs', values: circuits.map((_, i) => `.${45 + i}`), stored: [] },
-      { column: 'rcdTimeMs', values: circuits.map((c, i) => (c.rcdType ? String(17 + i) : 'na')), stored: [] },
-      { column: 'rcdButton', values: circuits.map((c) => (c.rcdType ? 'v' : 'na')), stored: [] },
-      { column: 'afddButton', values: circuits.map((c) => (c.afdd === 'yes' ? 'v' : 'na')), stored: [] },
+    const typed: Array<{ column: ReadingKey; stored: string[] }> = [
+      { column: 'ringR1', stored: circuits.map((c, i) => (ring(c) ? `0.${41 + i}` : '')) },
+      { column: 'ringRn', stored: circuits.map((c, i) => (ring(c) ? `0.${42 + i}` : '')) },
+      { column: 'ringR2', stored: circuits.map((c, i) => (ring(c) ? `0.${68 + i}` : '')) },
+      { column: 'r1PlusR2', stored: circuits.map((_, i) => `0.${21 + i}`) },
+      { column: 'irTestVoltage', stored: circuits.map(() => '500') },
+      { column: 'irLiveLive', stored: circuits.map((_, i) => (i % 3 === 0 ? '>299' : '>200')) },
+      { column: 'irLiveEarth', stored: circuits.map((_, i) => (i === 2 ? '180' : '>200')) },
+      { column: 'polarity', stored: circuits.map(() => '✓') },
+      { column: 'zs', stored: circuits.map((_, i) => `0.${45 + i}`) },
+      { column: 'rcdTimeMs', stored: circuits.map((c, i) => (c.rcdType ? String(17 + i) : '')) },
+      { column: 'rcdButton', stored: circuits.map((c) => (c.rcdType ? '✓' : '')) },
+      { column: 'afddButton', stored: circuits.map((c) => (c.afdd === 'yes' ? '✓' : '')) },
     ];
-    for (const set of typed) {
-      set.stored = set.values.map((v) => (v === 'na' ? 'N/A' : v === 'v' ? '✓' : v.startsWith('.') ? `0${v}` : v));
-    }
-    // Columns between one typed column and the next (details, the unused R2): → steps over them.
-    const order = columns.map((c) => c.key as string);
-    const stepOver = (column: string, next: string | undefined) => (next ? order.indexOf(next) - order.indexOf(column) - 1 : 0);
+    const script = new Map(typed.map((t) => [t.column, t.stored]));
 
-    // The cursor starts on r1 of the first circuit; Enter goes down, and from the last circuit to
-    // the top of the next column.
-    for (const [t, set] of typed.entries()) {
-      for (let i = 0; i < circuits.length; i++) {
-        if (set.ditto && i > 0) {
-          await page.keyboard.press("Control+'");
-        } else if (set.values[i] === 'v') {
-          // A tick in a ✓/✗ column is one key: saved, and on down the column.
-          await page.keyboard.press('v');
-        } else {
-          await page.keyboard.type(set.values[i]!);
-          await page.keyboard.press('Enter');
-        }
-      }
-      for (let n = 0; n < stepOver(set.column, typed[t + 1]?.column); n++) await page.keyboard.press('ArrowRight');
+    // The keys, planned with the console's own navigation from the board as it stands: the cursor
+    // starts on r1 of the first circuit; Enter goes down to the next cell that applies (or holds a
+    // value), from the last to the next column; → steps over the detail columns between.
+    const plan = planTyping({
+      circuits,
+      script: (row, column) => script.get(column)?.[row] ?? '',
+      columns: typed.map((t) => t.column),
+      rule: 'skip',
+      start: { row: 0, col: gridColumnKeys.indexOf('ringR1') },
+    });
+    for (const value of plan.values) {
+      for (const press of [...value.navigation, ...value.presses]) await page.keyboard.press(press.key);
     }
     expect(await gridHasFocus(page)).toBe(true);
 
@@ -181,9 +176,9 @@ describe('typing a whole board with the keyboard only', () => {
     const mismatches: string[] = [];
     for (const set of typed) {
       saved.forEach((c, i) => {
-        let want = set.stored[i];
+        let want = set.stored[i] || (circuits[i]?.cells[set.column]?.text ?? '');
         if (c.id === last.id && set.column === 'irLiveLive') want = 'LIM';
-        const got = c.cells[set.column]?.text;
+        const got = c.cells[set.column]?.text ?? '';
         if (got !== want) mismatches.push(`${c.number} ${set.column}: ${got} ≠ ${want}`);
       });
     }

@@ -651,11 +651,15 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
  */
 export const gridKeyRows: ReadonlyArray<{ label: string; keys: readonly string[]; words?: readonly string[] }> = [
   { label: 'Type over the cell (short forms are written out: .44 → 0.44, v → ✓, x → ✗, na → N/A)', keys: [], words: ['any character'] },
-  { label: 'In a ✓/✗ column: tick or cross, saved at once, and on down the column', keys: [], words: ['v', 'x'] },
-  { label: 'Save and go down the column (from the last circuit, to the top of the next column)', keys: ['Enter'] },
-  { label: 'Save and go up the column', keys: ['Shift+Enter'] },
+  { label: 'In a ✓/✗ column: tick or cross, saved at once, and on down the column as Enter goes', keys: [], words: ['v', 'x'] },
+  {
+    label:
+      'Save and go down the column to the next circuit the reading applies to: empty cells of a reading the circuit does not need (r1, rn, r2 on a radial, RCD time and button without an RCD, AFDD button without an AFDD, R2 by long lead) are passed; a cell holding a value never is. After the last, on to the next column that applies',
+    keys: ['Enter'],
+  },
+  { label: 'Save and go up the column, passing the same cells', keys: ['Shift+Enter'] },
   { label: 'Save and go right / left (wraps to the next / previous circuit)', keys: ['Tab', 'Shift+Tab'] },
-  { label: 'Move (while typing over a cell: save and move)', keys: ['ArrowUp', 'ArrowDown', 'ArrowLeft', 'ArrowRight'] },
+  { label: 'Move (while typing over a cell: save and move); arrows, Tab and clicks reach every cell, so N/A can be typed anywhere', keys: ['ArrowUp', 'ArrowDown', 'ArrowLeft', 'ArrowRight'] },
   { label: 'Edit the text in place (← → then move the caret)', keys: ['F2'] },
   { label: 'Cancel the edit (or drop the selection)', keys: ['Escape'] },
   { label: 'Clear the selected cells', keys: ['Delete', 'Backspace'] },

@@ -262,7 +262,7 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
     () => [
       {
         title: 'Grid',
-        note: 'Entry goes down the column: type a value, Enter, the next circuit’s value, Enter…',
+        note: 'Entry goes down the column: type a value, Enter, the next circuit’s value, Enter… Enter passes the empty cells a circuit does not need.',
         rows: gridKeyRows.map((row) => ({ label: row.label, keys: row.keys, words: row.words })),
       },
       quickEntryWordsSection(),

@@ -4,14 +4,18 @@ import type { BoardDetail, Circuit } from '../../../../shared/schemas/boards.ts'
 import { columnByKey, columns as allColumns, isReadingKey, type ColumnDef } from '../../../../shared/schemas/columns.ts';
 import { cellText } from '../grid/cell-value.ts';
 import { clearChanges, fillDownChanges, fillFromAboveChange, pasteChanges, rangeTexts } from '../grid/edits.ts';
+import { enterStopsAt } from '../grid/enter-stops.ts';
 import {
   activeIndex as activeIndexOf,
+  columnMove,
+  describeColumnMove,
   gridReducer,
   indexOf,
   initialGridState,
   positionAt,
   resolveActive,
   selectionRange,
+  type Applies,
   type GridAction,
   type GridPosition,
   type GridShape,
@@ -97,6 +101,7 @@ export function useGridController(options: GridControllerOptions) {
   const say = useCallback((text: string, tone: Notice['tone'] = 'info') => {
     noticeId.current += 1;
     setNotice({ text, tone, id: noticeId.current });
+    return noticeId.current;
   }, []);
 
   const undoRef = useRef<UndoStack>(emptyUndoStack);
@@ -129,6 +134,41 @@ export function useGridController(options: GridControllerOptions) {
       gridRef.current?.focus({ preventScroll: true });
     }
   }, [shape, dispatch, say]);
+
+  /** Enter's stops (see enter-stops.ts), read from the board as it is when the key arrives. */
+  const applies: Applies = useCallback((row, column) => {
+    const circuit = circuitsRef.current.get(shapeRef.current.rows[row] ?? -1);
+    return circuit ? enterStopsAt(circuit, column) : true;
+  }, []);
+
+  /** The notice of the last Enter that skipped cells: the next Enter that skips none clears it. */
+  const skipNoticeRef = useRef<number | null>(null);
+
+  /**
+   * Enter, Shift+Enter (and a tick, same-as-above) move down or up the column to the next cell that
+   * applies to its circuit, and say on the status line what they passed over.
+   */
+  const stepColumn = useCallback(
+    (direction: 'down' | 'up', keyName: string) => {
+      const shapeNow = shapeRef.current;
+      const from = activeIndexOf(stateRef.current, shapeNow);
+      if (!from) return;
+      const move = columnMove(from, direction, shapeNow, applies);
+      dispatch({ type: 'focus', position: positionAt(shapeNow, move.to) });
+      const words = describeColumnMove(from, move, direction, shapeNow, {
+        circuit: (row) => circuitsRef.current.get(shapeNow.rows[row] ?? -1)?.number ?? '',
+        column: (key) => columnByKey[key].label,
+      });
+      if (words) {
+        skipNoticeRef.current = say(`${keyName}: ${words}`);
+      } else if (skipNoticeRef.current !== null) {
+        const stale = skipNoticeRef.current;
+        skipNoticeRef.current = null;
+        setNotice((current) => (current?.id === stale ? null : current));
+      }
+    },
+    [applies, dispatch, say],
+  );
 
   const read = useCallback((position: GridPosition) => {
     const circuit = circuitsRef.current.get(position.circuitId);
@@ -246,11 +286,13 @@ export function useGridController(options: GridControllerOptions) {
         return false;
       }
       dispatch({ type: 'end-edit' });
-      if (move) dispatch({ type: 'move', move });
+      if (move === 'down-column') stepColumn('down', 'Enter');
+      else if (move === 'up-column') stepColumn('up', 'Shift+Enter');
+      else if (move) dispatch({ type: 'move', move });
       if (!keepFocus) focusGrid();
       return true;
     },
-    [applyChanges, dispatch, focusGrid, read, say],
+    [applyChanges, dispatch, focusGrid, read, say, stepColumn],
   );
 
   const moveTo = useCallback(
@@ -286,9 +328,9 @@ export function useGridController(options: GridControllerOptions) {
       say(`Not saved — ${describeRefusals(result.refused)}`, 'error');
       return;
     }
-    dispatch({ type: 'move', move: 'down-column' });
+    stepColumn('down', 'Same as above');
     focusGrid();
-  }, [applyChanges, cancelEdit, dispatch, focusGrid, read, say]);
+  }, [applyChanges, cancelEdit, focusGrid, read, say, stepColumn]);
 
   const fillDown = useCallback(() => {
     if (stateRef.current.edit) cancelEdit();
@@ -388,9 +430,9 @@ export function useGridController(options: GridControllerOptions) {
         say(`Not saved — ${describeRefusals(result.refused)}`, 'error');
         return;
       }
-      dispatch({ type: 'move', move: 'down-column' });
+      stepColumn('down', /^[vV✓]$/.test(key) ? 'Tick' : 'Cross');
     },
-    [applyChanges, dispatch, read, say],
+    [applyChanges, read, say, stepColumn],
   );
 
   const onKeyDown = useCallback(
@@ -445,7 +487,8 @@ export function useGridController(options: GridControllerOptions) {
         }
         case 'Enter':
           if (!plain) return;
-          move(event.shiftKey ? 'up-column' : 'down-column', false);
+          event.preventDefault();
+          stepColumn(event.shiftKey ? 'up' : 'down', event.shiftKey ? 'Shift+Enter' : 'Enter');
           return;
         case 'Tab': {
           if (!plain) return;
@@ -504,7 +547,7 @@ export function useGridController(options: GridControllerOptions) {
         startEdit('replace', event.key);
       }
     },
-    [cancelEdit, clearSelection, commandCharacters, commitEdit, dispatch, startEdit, tick],
+    [cancelEdit, clearSelection, commandCharacters, commitEdit, dispatch, startEdit, stepColumn, tick],
   );
 
   // Copy and paste of ranges: the browser's own copy/paste events (they carry the clipboard

@@ -57,6 +57,7 @@ export type Direction = 'up' | 'down' | 'left' | 'right';
 /**
  * What the cursor does:
  * - `down-column` (Enter): down the same column; from the last circuit, to the top of the next column.
+ *   Given an `Applies` predicate, it passes the cells the predicate says no to (see `columnMove`).
  * - `up-column` (Shift+Enter): up; from the first circuit, to the bottom of the previous column.
  * - `next-cell` (Tab): right; from the last column, to the first column of the next circuit.
  * - `previous-cell` (Shift+Tab): left; from the first column, to the last column of the previous circuit.
@@ -114,8 +115,85 @@ export function indexOf(shape: GridShape, position: GridPosition): CellIndex | n
   return row < 0 || col < 0 ? null : { row, col };
 }
 
-/** The index a move leads to from `from`, inside the shape. */
-export function moveIndex(from: CellIndex, move: Move, shape: GridShape): CellIndex {
+/**
+ * Whether Enter stops at a cell, by row index and column key. The console answers yes for every
+ * circuit-detail cell, for a reading the circuit needs (the checker's `requiredColumns`) and for any
+ * reading cell that holds a value; no for an empty reading that does not apply to the circuit
+ * (ring r1 on a radial, RCD time without an RCD…). Arrows, Tab and clicks ignore it.
+ */
+export type Applies = (row: number, column: ColumnKey) => boolean;
+
+/** Where an Enter (or Shift+Enter) leads, and the cells it passed over on the way. */
+export interface ColumnMove {
+  to: CellIndex;
+  /** The cells passed because they do not apply, in the order they were passed. */
+  skipped: CellIndex[];
+}
+
+/**
+ * Enter and Shift+Enter with skipping. The grid is read column by column (down each column, then
+ * the next column from its top; Shift+Enter the reverse), and the cursor goes to the next cell in
+ * that order that `applies`. A column in which no cell applies is passed whole. When no cell
+ * further on applies, the cursor stays where it is and nothing counts as skipped.
+ * Without `applies` every cell applies: one cell down, or the top of the next column.
+ */
+export function columnMove(from: CellIndex, direction: 'down' | 'up', shape: GridShape, applies?: Applies): ColumnMove {
+  const rowCount = shape.rows.length;
+  const colCount = shape.columns.length;
+  const skipped: CellIndex[] = [];
+  if (rowCount === 0 || colCount === 0) return { to: from, skipped };
+  const step = direction === 'down' ? 1 : -1;
+  let { row, col } = from;
+  for (;;) {
+    row += step;
+    if (row >= rowCount || row < 0) {
+      col += step;
+      if (col >= colCount || col < 0) return { to: from, skipped: [] };
+      row = step > 0 ? 0 : rowCount - 1;
+    }
+    const key = shape.columns[col]!;
+    if (!applies || applies(row, key)) return { to: { row, col }, skipped };
+    skipped.push({ row, col });
+  }
+}
+
+/** How the status line names circuits and columns. */
+export interface GridNames {
+  circuit(row: number): string;
+  column(key: ColumnKey): string;
+}
+
+/**
+ * What a column move did, in words for the status line, when it passed cells that do not apply;
+ * null when it passed none. Examples:
+ * - "down to circuit 7 (skipped 3 circuits this reading does not apply to)"
+ * - "on to Test V of circuit 1 (R2: no circuit needs it)"
+ * - "on to Time of circuit 4 (skipped 3 cells that do not apply)"
+ */
+export function describeColumnMove(from: CellIndex, move: ColumnMove, direction: 'down' | 'up', shape: GridShape, names: GridNames): string | null {
+  const { to, skipped } = move;
+  if (skipped.length === 0) return null;
+  const circuit = names.circuit(to.row);
+  const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
+  if (to.col === from.col) {
+    return `${direction} to circuit ${circuit} (skipped ${plural(skipped.length, 'circuit')} this reading does not apply to)`;
+  }
+  // Columns strictly between the two were passed whole; the rest were cells at either end.
+  const low = Math.min(from.col, to.col);
+  const high = Math.max(from.col, to.col);
+  const passedColumns: string[] = [];
+  for (let c = direction === 'down' ? low + 1 : high - 1; c > low && c < high; c += direction === 'down' ? 1 : -1) {
+    passedColumns.push(names.column(shape.columns[c]!));
+  }
+  const cells = skipped.filter((cell) => cell.col === from.col || cell.col === to.col).length;
+  const parts: string[] = [];
+  if (cells > 0) parts.push(`skipped ${plural(cells, 'cell')} that ${cells === 1 ? 'does' : 'do'} not apply`);
+  if (passedColumns.length > 0) parts.push(`${passedColumns.join(', ')}: no circuit needs ${passedColumns.length === 1 ? 'it' : 'them'}`);
+  return `${direction === 'down' ? 'on' : 'back'} to ${names.column(shape.columns[to.col]!)} of circuit ${circuit} (${parts.join('; ')})`;
+}
+
+/** The index a move leads to from `from`, inside the shape (`applies`: see `columnMove`). */
+export function moveIndex(from: CellIndex, move: Move, shape: GridShape, applies?: Applies): CellIndex {
   const lastRow = shape.rows.length - 1;
   const lastCol = shape.columns.length - 1;
   const { row, col } = from;
@@ -130,11 +208,9 @@ export function moveIndex(from: CellIndex, move: Move, shape: GridShape): CellIn
     case 'right':
       return { row, col: Math.min(lastCol, col + 1) };
     case 'down-column':
-      if (row < lastRow) return { row: row + 1, col };
-      return col < lastCol ? { row: 0, col: col + 1 } : { row, col };
+      return columnMove(from, 'down', shape, applies).to;
     case 'up-column':
-      if (row > 0) return { row: row - 1, col };
-      return col > 0 ? { row: lastRow, col: col - 1 } : { row, col };
+      return columnMove(from, 'up', shape, applies).to;
     case 'next-cell':
       if (col < lastCol) return { row, col: col + 1 };
       return row < lastRow ? { row: row + 1, col: 0 } : { row, col };

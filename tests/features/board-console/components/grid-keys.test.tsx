@@ -94,7 +94,9 @@ describe('the grid keys', () => {
     expect(input).toHaveValue('0.39');
     await user.keyboard('{ArrowLeft}5{Enter}');
     expect(calls[0]).toMatchObject({ circuitId: 11, column: 'ringR1', text: '0.359' });
-    expect(where(grid)).toBe('2 r1');
+    // Every circuit here is a radial: Enter passes the empty ring cells (r1 of 2 and 3, all of rn
+    // and r2) and lands on the first reading they need.
+    expect(where(grid)).toBe('1 R1+R2');
   });
 
   it('when an arrow is pressed after typing over a cell, then the value is written and the cursor moves', async () => {
