@@ -1,3 +1,4 @@
+import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { createApp, sessionSecretFrom } from './app.ts';
@@ -26,11 +27,16 @@ if (demoPresent.some(Boolean)) {
   for (const account of demoAccounts) console.log(`  ${account.role.padEnd(8)} ${account.email}`);
 }
 
+// `npm start` builds the client first; under `npm run dev` Vite serves it, so dist/ may not exist.
+const clientDir = path.join(root, 'dist');
+const serveClient = !process.env.BOARDWALK_API_ONLY && fs.existsSync(path.join(clientDir, 'index.html'));
+if (!serveClient) console.log('Serving the API only (no built client in dist/; `npm run dev` serves it through Vite).');
+
 const app = createApp({
   db,
   sqlite,
   sessionSecret: process.env.SESSION_SECRET ?? (await sessionSecretFrom(db)),
-  clientDir: process.env.BOARDWALK_API_ONLY ? undefined : path.join(root, 'dist'),
+  clientDir: serveClient ? clientDir : undefined,
 });
 
 const server = app.listen(port, () => {
