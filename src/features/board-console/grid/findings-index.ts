@@ -86,11 +86,20 @@ export function indexFindings(findings: readonly Finding[], previous: FindingsIn
 }
 
 /** Orders findings worst first, then by the order of their circuits on the board. */
+/**
+ * Findings that only say a reading is not recorded yet. They block locking as errors do, but on a
+ * board being typed there are many of them, so within a severity they come after the findings
+ * about values that were typed: a slip just made shows near the top, not below fifty blanks.
+ */
+const notYetRecordedCodes: ReadonlySet<string> = new Set(['cells-missing', 'rcd-time-missing', 'circuit-untested']);
+
 export function sortFindings(findings: readonly Finding[], circuitOrder: readonly number[]): Finding[] {
   const position = new Map(circuitOrder.map((id, i) => [id, i]));
+  const blank = (f: Finding) => (notYetRecordedCodes.has(f.code) ? 1 : 0);
   return [...findings].sort(
     (a, b) =>
       severityRank[b.severity] - severityRank[a.severity] ||
+      blank(a) - blank(b) ||
       (a.circuitId === null ? -1 : (position.get(a.circuitId) ?? 1e9)) - (b.circuitId === null ? -1 : (position.get(b.circuitId) ?? 1e9)),
   );
 }
