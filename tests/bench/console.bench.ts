@@ -291,7 +291,8 @@ async function main() {
     console.log(`  Enter (save, re-check, move):  p50 ${ms(enter.p50)}  p95 ${ms(enter.p95)}  max ${ms(enter.max)}  (n=${enter.n})`);
     console.log(`  other keys (typing in a cell): p50 ${ms(others.p50)}  p95 ${ms(others.p95)}  max ${ms(others.max)}  (n=${others.n})`);
     console.log(`  time in the key's own handlers: Enter p50 ${ms(enterHandlers.p50)} p95 ${ms(enterHandlers.p95)}; other keys p50 ${ms(otherHandlers.p50)} p95 ${ms(otherHandlers.p95)}`);
-    console.log('  (the rest of each figure is the wait for the next frame and the browser rendering it)');
+    console.log('  (the rest of each figure is the wait for the next frame and the tasks that run before it, scroll events included;');
+    console.log('   the frame\'s own style, layout and paint come after its animation-frame callbacks and are not in the figure)');
     console.log('');
     console.log('Keystrokes per character of value (Enter and modifiers counted):');
     console.log(`  typed above (${typing.values.length} values of ${SCRIPT_COLUMNS.join(', ')}): ${ratioLine(typing)}`);

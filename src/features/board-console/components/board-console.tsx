@@ -45,6 +45,8 @@ function messageOf(error: unknown): string {
   return error instanceof Error ? error.message : 'That did not work.';
 }
 
+const noPendingMarks: ReadonlyMap<number, string> = new Map();
+
 /** Text-editing keys that belong to a focused text field, never to the console's commands. */
 function keepTextEditingKeys(event: KeyboardEvent) {
   if ((event.ctrlKey || event.metaKey) && !event.altKey && ['z', 'y', 'a', 'c', 'v', 'x'].includes(event.key.toLowerCase())) {
@@ -121,19 +123,9 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
   // the keystroke's own frame (React renders the deferred value when the urgent work is done).
   const panelFindings = useDeferredValue(stableFindings.current.findings);
 
-  // Which cells still wait for the server (nothing does while everything is saved).
-  const isPending = sync.isPending;
-  const allSaved = sync.status.state === 'saved';
-  const pending = useMemo(() => {
-    const map = new Map<number, string>();
-    if (allSaved || !isPending) return map;
-    for (const circuitId of grid.shape.rows) {
-      let keys = '';
-      for (const column of grid.shape.columns) if (isPending(circuitId, column)) keys += ` ${column}`;
-      if (keys) map.set(circuitId, `${keys} `);
-    }
-    return map;
-  }, [isPending, allSaved, grid.shape]);
+  // Which cells still wait for the server: made from the outbox by the sync engine's hook, so a
+  // keystroke does not ask about every cell of the board.
+  const pending = sync.pendingMarks ?? noPendingMarks;
 
   // Stable across renders (it reads the sync engine from the context ref), so the grid's memoised
   // rows and cells do not re-render because of it.

@@ -1,11 +1,13 @@
 import { useVirtualizer } from '@tanstack/react-virtual';
-import { memo, useCallback, useLayoutEffect, useMemo, useRef, type KeyboardEvent, type FocusEvent, type MouseEvent, type RefObject, type UIEvent } from 'react';
+import { memo, startTransition, useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent, type FocusEvent, type MouseEvent, type RefObject, type UIEvent } from 'react';
 import type { Circuit } from '../../../../shared/schemas/boards.ts';
 import { columnGroups, type ColumnDef } from '../../../../shared/schemas/columns.ts';
 import type { Severity } from '../../../../shared/schemas/findings.ts';
 import { cellText } from '../grid/cell-value.ts';
 import { severitySymbol, severityWord, type CellFindings, type FindingsIndex, type RowFindings } from '../grid/findings-index.ts';
 import type { CellIndex, EditState, GridPosition, IndexRange } from '../grid/grid-state.ts';
+import { buildStep, rowsBeforeJump, rowsToRender } from '../grid/rows-ahead.ts';
+import { afterNextFrame } from '../sync/after-next-frame.ts';
 import type { Conflict } from '../sync/types.ts';
 import { cellDomId, cellErrorDomId, cellFindingDomId, cellKey, rowHeaderDomId } from './dom-ids.ts';
 
@@ -15,6 +17,10 @@ const groupHeaderHeight = 22;
 const columnHeaderHeight = 34;
 export const headerHeight = groupHeaderHeight + columnHeaderHeight;
 export const rowHeaderWidth = 68;
+/** Rows built beyond those in view on each side (the virtualiser's overscan). */
+const overscan = 6;
+/** Rows built ahead of a jump per frame (see rows-ahead.ts): a few milliseconds of work. */
+const rowsAheadPerFrame = 3;
 
 /** Colours per severity; each also shows its symbol (see severitySymbol), never colour alone. */
 export const severityCellClass: Readonly<Record<Severity, string>> = {
@@ -84,10 +90,24 @@ export function BoardGrid(props: BoardGridProps) {
     count: circuits.length,
     getScrollElement: () => gridRef.current,
     estimateSize: () => rowHeight,
-    overscan: 6,
+    overscan,
     scrollMargin: headerHeight,
     getItemKey: (index) => circuits[index]?.id ?? index,
   });
+
+  // The rows in view (with the virtualiser's overscan) are built at once; the rows the cursor's
+  // next jump will show are built beforehand, a few per frame (see rows-ahead.ts).
+  const inViewItems = virtualizer.getVirtualItems();
+  const inView = { first: inViewItems[0]?.index ?? 0, last: inViewItems[inViewItems.length - 1]?.index ?? -1 };
+  const visible = virtualizer.range;
+  const wantedAhead = rowsBeforeJump({
+    active: activeIndex?.row ?? -1,
+    visible: visible ? { first: visible.startIndex, last: visible.endIndex } : { first: 0, last: -1 },
+    count: circuits.length,
+    page: Math.ceil((virtualizer.scrollRect?.height ?? 0) / rowHeight) + overscan,
+  });
+  const builtAhead = useRowsBuiltAhead(wantedAhead.join(','));
+  const rowIndices = rowsToRender(inView, builtAhead, circuits.length);
 
   // Where the grid is scrolled and how big it is, kept from scroll and resize events, so moving
   // the cursor never has to ask the browser for a fresh layout in the middle of a keystroke.
@@ -161,17 +181,17 @@ export function BoardGrid(props: BoardGridProps) {
     >
       <GridHeader columns={columns} groups={groups} width={offsets.total} activeCol={activeCol} />
       <div role="presentation" className="relative" style={{ height: virtualizer.getTotalSize() - headerHeight, width: offsets.total }}>
-        {virtualizer.getVirtualItems().map((item) => {
-          const circuit = circuits[item.index];
+        {rowIndices.map((index) => {
+          const circuit = circuits[index];
           if (!circuit) return null;
-          const isActiveRow = item.index === activeRow;
-          const inRange = range !== null && item.index >= range.top && item.index <= range.bottom;
+          const isActiveRow = index === activeRow;
+          const inRange = range !== null && index >= range.top && index <= range.bottom;
           return (
             <GridRow
               key={circuit.id}
               circuit={circuit}
-              index={item.index}
-              top={item.start - headerHeight}
+              index={index}
+              top={index * rowHeight}
               width={offsets.total}
               columns={columns}
               activeCol={isActiveRow ? activeCol : -1}
@@ -193,6 +213,22 @@ export function BoardGrid(props: BoardGridProps) {
       </div>
     </div>
   );
+}
+
+/**
+ * The rows built ahead of the cursor's next jump (given as "row,row,…", nearest first): they
+ * follow the wanted rows a few per frame, each step a background render after a frame, so no
+ * keystroke's frame pays for building them.
+ */
+function useRowsBuiltAhead(wantedKey: string): readonly number[] {
+  const [built, setBuilt] = useState<readonly number[]>([]);
+  useEffect(() => {
+    const wanted = wantedKey === '' ? [] : wantedKey.split(',').map(Number);
+    const next = buildStep(built, wanted, rowsAheadPerFrame);
+    if (next.length === built.length && next.every((row, i) => row === built[i])) return;
+    return afterNextFrame(() => startTransition(() => setBuilt(next)));
+  }, [built, wantedKey]);
+  return built;
 }
 
 interface GridHeaderProps {

@@ -13,7 +13,8 @@ import { updateCircuit } from '../api/update-circuit.ts';
 import { cellConflictDetailsSchema, circuitConflictDetailsSchema } from '../api/wire-schemas.ts';
 import { writeCell as putCell } from '../api/write-cell.ts';
 import { arrangeCircuits, mergeBoard, mergeChanges, mergeCircuit, mergeFetched, replaceCircuitFindings } from './merge.ts';
-import { browserStorage, readOutbox, writeOutbox, type OutboxEntry } from './outbox-storage.ts';
+import { afterNextFrame } from './after-next-frame.ts';
+import { browserStorage, OutboxWriter, readOutbox, type OutboxEntry } from './outbox-storage.ts';
 import { PendingOverlay } from './overlay.ts';
 import { cellTarget, fieldTarget, fieldValueText, targetOf, type EditTarget } from './targets.ts';
 import type { Conflict, EntryMethod, PendingEdit, SaveStatus } from './types.ts';
@@ -84,8 +85,7 @@ export class BoardSyncEngine {
   readonly boardId: number;
   private readonly queryClient: QueryClient;
   private readonly timings: BoardSyncTimings;
-  private readonly storage: Storage | null;
-  private readonly ownerId: number | null;
+  private readonly outbox: OutboxWriter;
   private readonly overlay = new PendingOverlay();
   private readonly listeners = new Set<() => void>();
 
@@ -107,6 +107,8 @@ export class BoardSyncEngine {
   /** Bumped by every start and stop, so answers to requests of an earlier run are ignored. */
   private run = 0;
   private sending = false;
+  /** Cancels the send waiting for the next frame (see `sendAfterFrame`), if one is. */
+  private cancelSend: (() => void) | null = null;
   private retryAttempt = 0;
   private retryTimer: ReturnType<typeof setTimeout> | null = null;
   private pollTimer: ReturnType<typeof setTimeout> | null = null;
@@ -119,9 +121,10 @@ export class BoardSyncEngine {
     this.queryClient = queryClient;
     this.boardId = boardId;
     this.timings = options.timings ?? defaultTimings;
-    this.storage = options.storage === undefined ? browserStorage() : options.storage;
-    this.ownerId = options.ownerId ?? null;
-    this.entries = readOutbox(this.storage, boardId, this.ownerId);
+    const storage = options.storage === undefined ? browserStorage() : options.storage;
+    const ownerId = options.ownerId ?? null;
+    this.outbox = new OutboxWriter(storage, boardId, ownerId);
+    this.entries = readOutbox(storage, boardId, ownerId);
     for (const entry of this.entries) this.ownIds.add(entry.edit.id);
     this.snapshot = this.makeSnapshot();
   }
@@ -194,7 +197,7 @@ export class BoardSyncEngine {
 
   /** Stores the outbox and tells the readers. Call after every change of `entries`. */
   private commit(): void {
-    writeOutbox(this.storage, this.boardId, this.entries, this.ownIds, this.ownerId);
+    this.outbox.write(this.entries, this.ownIds);
     this.emit();
   }
 
@@ -247,8 +250,10 @@ export class BoardSyncEngine {
     if (typeof document !== 'undefined') document.removeEventListener('visibilitychange', this.onVisibilityChange);
     if (this.retryTimer) clearTimeout(this.retryTimer);
     if (this.pollTimer) clearTimeout(this.pollTimer);
+    this.cancelSend?.();
     this.retryTimer = null;
     this.pollTimer = null;
+    this.cancelSend = null;
   }
 
   private onOnline = (): void => {
@@ -341,8 +346,22 @@ export class BoardSyncEngine {
   private enqueue(edit: PendingEdit): void {
     this.ownIds.add(edit.id);
     this.entries = [...this.entries, { edit }];
+    // Stored before the key's handler returns: from here on a crash or a reload cannot lose it.
     this.commit();
-    this.pump();
+    this.sendAfterFrame();
+  }
+
+  /**
+   * Sends what waits once the typed value is on screen. Starting a request costs the main thread
+   * about a millisecond and a half, and the edit is already stored and shown, so the keystroke's
+   * frame does not wait for it.
+   */
+  private sendAfterFrame(): void {
+    if (this.cancelSend) return;
+    this.cancelSend = afterNextFrame(() => {
+      this.cancelSend = null;
+      this.pump();
+    });
   }
 
   resolveConflict(editId: string, choice: 'keep-theirs' | 'overwrite'): void {

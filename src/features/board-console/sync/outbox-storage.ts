@@ -71,12 +71,20 @@ export function browserStorage(): Storage | null {
   }
 }
 
-function readRaw(storage: Storage, boardId: number, ownerId: number | null): unknown[] {
+/** The entries of a stored outbox text, as stored (none when the text is missing or damaged). */
+function storedEntries(text: string | null): unknown[] {
+  if (!text) return [];
   try {
-    const text = storage.getItem(outboxStorageKey(boardId, ownerId));
-    if (!text) return [];
     const parsed = storedSchema.safeParse(JSON.parse(text));
     return parsed.success ? parsed.data.entries : [];
+  } catch {
+    return [];
+  }
+}
+
+function readRaw(storage: Storage, boardId: number, ownerId: number | null): unknown[] {
+  try {
+    return storedEntries(storage.getItem(outboxStorageKey(boardId, ownerId)));
   } catch {
     return [];
   }
@@ -101,10 +109,71 @@ export function readOutbox(storage: Storage | null, boardId: number, ownerId: nu
   return entries;
 }
 
+/** What a page knows of the stored text after writing it: the text, and the entries of other pages in it. */
+interface LastWrite {
+  text: string | null;
+  others: ReadonlyArray<{ id: string | undefined; json: string }>;
+}
+
 /**
- * Stores this page's outbox. `ownIds` are the ids of every edit this page has held: stored
- * entries with other ids (written by another tab with the same board open, or unreadable) are
- * kept, so two tabs never wipe each other's edits.
+ * Stores one page's outbox of one board, cheaply enough to run on every keystroke (an edit is
+ * stored before the key's handler returns). The text stored is the same as ever:
+ * `{"version":1,"entries":[…]}` with other pages' entries first, then this page's.
+ *
+ * - Each entry is turned into JSON once: entries are replaced, never changed in place, so an
+ *   entry's text is kept with the entry and the stored text is put together from those pieces.
+ * - The stored text is read back and parsed only when something else changed it since this page
+ *   last wrote it (another tab with the same board open): `ownIds` are the ids of every edit this
+ *   page has held, and stored entries with other ids (or unreadable ones) are kept, so two tabs
+ *   never wipe each other's edits.
+ */
+export class OutboxWriter {
+  private readonly storage: Storage | null;
+  private readonly key: string;
+  private readonly json = new WeakMap<OutboxEntry, string>();
+  /** Unknown (null) until this page has written, and again after a write failed. */
+  private last: LastWrite | null = null;
+
+  constructor(storage: Storage | null, boardId: number, ownerId: number | null = null) {
+    this.storage = storage;
+    this.key = outboxStorageKey(boardId, ownerId);
+  }
+
+  write(entries: readonly OutboxEntry[], ownIds: ReadonlySet<string>): void {
+    const storage = this.storage;
+    if (!storage) return;
+    try {
+      const stored = storage.getItem(this.key);
+      const known = this.last !== null && this.last.text === stored ? this.last.others : storedEntries(stored).map((raw) => ({ id: rawId(raw), json: JSON.stringify(raw) }));
+      const others = known.filter((other) => other.id === undefined || !ownIds.has(other.id));
+      const pieces = others.map((other) => other.json);
+      for (const entry of entries) pieces.push(this.entryJson(entry));
+      const text = pieces.length === 0 ? null : `{"version":1,"entries":[${pieces.join(',')}]}`;
+      if (text === null) storage.removeItem(this.key);
+      else if (text !== stored) storage.setItem(this.key, text);
+      this.last = { text, others };
+    } catch {
+      // Storage full or refused: the edits are still held in memory and sent as usual; the next
+      // write reads the stored text again.
+      this.last = null;
+    }
+  }
+
+  private entryJson(entry: OutboxEntry): string {
+    let text = this.json.get(entry);
+    if (text === undefined) {
+      text = JSON.stringify(entry);
+      this.json.set(entry, text);
+    }
+    return text;
+  }
+}
+
+/**
+ * Stores a page's outbox once (see `OutboxWriter`, which a page keeps to store it on every change).
+ * `ownIds` are the ids of every edit this page has held: stored entries with other ids (written by
+ * another tab with the same board open, or unreadable) are kept, so two tabs never wipe each
+ * other's edits.
  */
 export function writeOutbox(
   storage: Storage | null,
@@ -113,17 +182,5 @@ export function writeOutbox(
   ownIds: ReadonlySet<string>,
   ownerId: number | null = null,
 ): void {
-  if (!storage) return;
-  const key = outboxStorageKey(boardId, ownerId);
-  try {
-    const others = readRaw(storage, boardId, ownerId).filter((raw) => {
-      const id = rawId(raw);
-      return id === undefined || !ownIds.has(id);
-    });
-    const all = [...others, ...entries];
-    if (all.length === 0) storage.removeItem(key);
-    else storage.setItem(key, JSON.stringify({ version: 1, entries: all }));
-  } catch {
-    // Storage full or refused: the edits are still held in memory and sent as usual.
-  }
+  new OutboxWriter(storage, boardId, ownerId).write(entries, ownIds);
 }

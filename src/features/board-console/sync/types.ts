@@ -69,6 +69,11 @@ export interface BoardSync {
    * server (for an "unsaved" mark). Optional: added by the sync engine, which always provides it.
    */
   isPending?(circuitId: number, column: ReadingKey | keyof CircuitFields): boolean;
+  /**
+   * The same for the grid, per circuit: the keys of its columns with an edit still waiting, as
+   * " key key " (absent when none). Optional, like `isPending`.
+   */
+  pendingMarks?: ReadonlyMap<number, string>;
   /** Writes a reading (optimistic; queued; sent in order). */
   writeCell(circuitId: number, column: ReadingKey, text: string, options?: { reason?: string | null; how?: EntryMethod }): void;
   /** Writes a circuit detail (optimistic; queued; sent in order). */

@@ -4,7 +4,7 @@ import type { CircuitFields } from '../../../../shared/schemas/boards.ts';
 import type { ReadingKey } from '../../../../shared/schemas/columns.ts';
 import { boardDetailQueryOptions } from '../api/get-board.ts';
 import { BoardSyncEngine } from './board-sync-engine.ts';
-import { cellTarget, fieldTarget } from './targets.ts';
+import { cellTarget, fieldTarget, pendingMarks } from './targets.ts';
 import type { BoardSync } from './types.ts';
 
 /**
@@ -101,6 +101,7 @@ export function useBoardSync(boardId: number): BoardSync {
     [engine],
   );
 
+  const marks = useMemo(() => pendingMarks(snapshot.entries), [snapshot.entries]);
   const { pending } = snapshot;
   const isPending = useMemo(
     () => (circuitId: number, key: ReadingKey | keyof CircuitFields) => pending.has(cellTarget(circuitId, key as ReadingKey)) || pending.has(fieldTarget(circuitId, key as keyof CircuitFields)),
@@ -116,8 +117,9 @@ export function useBoardSync(boardId: number): BoardSync {
       present: snapshot.present,
       conflicts: snapshot.conflicts,
       isPending,
+      pendingMarks: marks,
       ...actions,
     }),
-    [detail, query.isPending, query.error, snapshot.status, snapshot.present, snapshot.conflicts, isPending, actions],
+    [detail, query.isPending, query.error, snapshot.status, snapshot.present, snapshot.conflicts, isPending, marks, actions],
   );
 }
