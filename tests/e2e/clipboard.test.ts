@@ -1,24 +1,13 @@
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoTester, launchBrowser, startDemoServer, type DemoServer } from '../helpers/browser.ts';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import { demoTester, useDemoServerAndBrowser } from '../helpers/browser.ts';
 
 /**
  * Copy and paste of ranges as tab-separated text, in a real browser: what a spreadsheet puts on
  * the clipboard lands in the grid, and a range copied from the grid reads back as the same text.
  */
 
-let server: DemoServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await startDemoServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const env = useDemoServerAndBrowser();
 
 interface ApiCircuit {
   id: number;
@@ -41,12 +30,12 @@ async function jumpToColumn(page: Page, label: string): Promise<void> {
 
 describe('clipboard', () => {
   it('when blocks are pasted from a spreadsheet and ranges copied, then the cells and the clipboard hold tab-separated text', async () => {
-    const context = await browser.newContext({ permissions: ['clipboard-read', 'clipboard-write'] });
-    expect((await context.request.post(`${server.url}/api/auth/sign-in`, { data: demoTester })).status()).toBe(200);
+    const context = await env.browser.newContext({ permissions: ['clipboard-read', 'clipboard-write'] });
+    expect((await context.request.post(`${env.server.url}/api/auth/sign-in`, { data: demoTester })).status()).toBe(200);
     const page = await context.newPage();
-    const boards = (await (await context.request.get(`${server.url}/api/boards`)).json()) as { boards: { id: number; phases: number }[] };
+    const boards = (await (await context.request.get(`${env.server.url}/api/boards`)).json()) as { boards: { id: number; phases: number }[] };
     const boardId = boards.boards.find((b) => b.phases === 3)!.id;
-    await page.goto(`${server.url}/boards/${boardId}`);
+    await page.goto(`${env.server.url}/boards/${boardId}`);
     await page.getByRole('grid').waitFor();
     await page.getByRole('grid').focus();
 

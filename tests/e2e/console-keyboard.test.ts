@@ -1,7 +1,7 @@
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import type { ReadingKey } from '../../shared/schemas/columns.ts';
-import { demoTester, launchBrowser, startDemoServer, type DemoServer } from '../helpers/browser.ts';
+import { demoTester, useDemoServerAndBrowser } from '../helpers/browser.ts';
 import { gridColumnKeys, planTyping } from '../helpers/keystroke-plan.ts';
 
 /**
@@ -23,18 +23,7 @@ interface ApiCircuit {
   cells: Record<string, { text: string; reason: string | null } | undefined>;
 }
 
-let server: DemoServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await startDemoServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const env = useDemoServerAndBrowser();
 
 /** Counts events a pointing device makes. A click the keyboard causes (Enter on a button) has detail 0 and is not counted. */
 function countPointerEvents() {
@@ -86,12 +75,12 @@ async function gridHasFocus(page: Page): Promise<boolean> {
 
 describe('typing a whole board with the keyboard only', () => {
   it('when a tester types every reading of the house board and uses the palette, then the API holds every value and no pointer was used', async () => {
-    const context = await browser.newContext();
+    const context = await env.browser.newContext();
     const page = await context.newPage();
     await page.addInitScript(countPointerEvents);
 
     // Sign in by keyboard: the e-mail field has the focus.
-    await page.goto(`${server.url}/sign-in`);
+    await page.goto(`${env.server.url}/sign-in`);
     await page.getByLabel('E-mail').waitFor();
     await page.keyboard.type(demoTester.email);
     await page.keyboard.press('Tab');
@@ -103,7 +92,7 @@ describe('typing a whole board with the keyboard only', () => {
     const boards = await page.evaluate(async () => ((await (await fetch('/api/boards')).json()) as { boards: { id: number; phases: number; state: string }[] }).boards);
     const board = boards.find((b) => b.phases === 1 && b.state === 'open');
     if (!board) throw new Error('No open single-phase demo board');
-    await page.goto(`${server.url}/boards/${board.id}`);
+    await page.goto(`${env.server.url}/boards/${board.id}`);
     await page.getByRole('grid').waitFor();
     await expect.poll(() => gridHasFocus(page)).toBe(true);
 
@@ -170,7 +159,7 @@ describe('typing a whole board with the keyboard only', () => {
     await answer(page, 'Supply to the garden office could not be isolated');
     await expect.poll(() => gridHasFocus(page)).toBe(true);
 
-    // Everything reached the server.
+    // Everything reached the env.server.
     await expect.poll(() => page.getByRole('region', { name: 'Status line' }).innerText(), { timeout: 10_000 }).toMatch(/✓ saved/);
     const saved = await boardFromPage(page, board.id);
     const mismatches: string[] = [];

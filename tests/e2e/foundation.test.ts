@@ -1,31 +1,19 @@
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoTester, launchBrowser, startDemoServer, type DemoServer } from '../helpers/browser.ts';
+import { describe, expect, it } from 'vitest';
+import { demoTester, useDemoServerAndBrowser } from '../helpers/browser.ts';
 
 /**
  * The first slice end to end on the real stack: the demo tester signs in, opens a board, types a
  * reading, reloads, and finds it there; and is shown the lock command disabled, with the reason.
  */
 
-let server: DemoServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await startDemoServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const env = useDemoServerAndBrowser();
 
 describe('foundation', () => {
   it('when the demo tester types a reading and reloads, then the reading is still there; locking is refused with its reason', async () => {
-    const context = await browser.newContext();
+    const context = await env.browser.newContext();
     const page = await context.newPage();
 
-    await page.goto(`${server.url}/sign-in`);
+    await page.goto(`${env.server.url}/sign-in`);
     await page.getByLabel('E-mail').fill(demoTester.email);
     await page.getByLabel('Password').fill(demoTester.password);
     await page.getByRole('button', { name: 'Sign in' }).click();
@@ -34,7 +22,7 @@ describe('foundation', () => {
     const boards = await page.evaluate(async () => ((await (await fetch('/api/boards')).json()) as { boards: { id: number; state: string }[] }).boards);
     const board = boards.find((b) => b.state === 'open');
     if (!board) throw new Error('No open demo board');
-    await page.goto(`${server.url}/boards/${board.id}`);
+    await page.goto(`${env.server.url}/boards/${board.id}`);
     const grid = page.getByRole('grid');
     await grid.waitFor();
 

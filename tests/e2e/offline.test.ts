@@ -1,7 +1,8 @@
-import type { Browser, BrowserContext, Page, Route } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { BrowserContext, Page, Route } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { outboxStorageKey } from '../../src/features/board-console/sync/outbox-storage.ts';
-import { demoTester, launchBrowser, startDemoServer, type DemoServer } from '../helpers/browser.ts';
+import { demoTester, useDemoServerAndBrowser } from '../helpers/browser.ts';
+import { apiGet, cellText, pickPlainBoard, quickEntry, type CircuitInfo } from '../helpers/console-page.ts';
 
 /**
  * The console without a server: readings typed while the API cannot be reached wait in the
@@ -9,52 +10,14 @@ import { demoTester, launchBrowser, startDemoServer, type DemoServer } from '../
  * answers again. Keyboard only; what was saved is checked through the API.
  */
 
-interface CircuitInfo {
-  id: number;
-  number: string;
-  cells: Record<string, { text: string; version: number } | undefined>;
-}
 
-let server: DemoServer;
-let browser: Browser;
+const env = useDemoServerAndBrowser();
 
-beforeAll(async () => {
-  server = await startDemoServer();
-  browser = await launchBrowser();
-});
+const api = <T,>(context: BrowserContext, path: string) => apiGet<T>(context, env.server.url, path);
 
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const pickBoard = (context: BrowserContext) => pickPlainBoard(context, env.server.url);
 
-async function api<T>(context: BrowserContext, path: string): Promise<T> {
-  const res = await context.request.get(`${server.url}${path}`);
-  expect(res.status()).toBe(200);
-  return (await res.json()) as T;
-}
 
-async function pickBoard(context: BrowserContext): Promise<{ boardId: number; circuits: CircuitInfo[] }> {
-  const { boards } = await api<{ boards: { id: number; state: string }[] }>(context, '/api/boards');
-  for (const board of boards.filter((b) => b.state === 'open')) {
-    const detail = await api<{ circuits: CircuitInfo[] }>(context, `/api/boards/${board.id}`);
-    if (detail.circuits.length >= 8 && detail.circuits.every((c) => /^\d+[a-z]?$/.test(c.number))) return { boardId: board.id, circuits: detail.circuits };
-  }
-  throw new Error('No open demo board with plainly numbered circuits');
-}
-
-async function quickEntry(page: Page, line: string): Promise<void> {
-  await page.getByRole('grid').focus();
-  await page.keyboard.press('Control+j');
-  const input = page.getByLabel('Quick entry');
-  await expect.poll(() => input.evaluate((el) => el === document.activeElement)).toBe(true);
-  await page.keyboard.type(line);
-  await page.keyboard.press('Enter');
-}
-
-function cellText(page: Page, circuitId: number, column: string): Promise<string> {
-  return page.locator(`[id="bw-cell-${circuitId}-${column}"] > span`).first().innerText();
-}
 
 /** Whether the page says "offline" with this many edits waiting (header and status line both show it). */
 function saysOffline(page: Page, waiting: number) {
@@ -65,8 +28,8 @@ const abort = (route: Route) => route.abort('internetdisconnected');
 
 describe('offline', () => {
   it('when the API cannot be reached, then typed readings wait, survive a reload, and all land in order when it is back', async () => {
-    const context = await browser.newContext();
-    expect((await context.request.post(`${server.url}/api/auth/sign-in`, { data: demoTester })).status()).toBe(200);
+    const context = await env.browser.newContext();
+    expect((await context.request.post(`${env.server.url}/api/auth/sign-in`, { data: demoTester })).status()).toBe(200);
     const { boardId, circuits } = await pickBoard(context);
     const { user } = await api<{ user: { id: number } }>(context, '/api/auth/me');
     // The outbox is kept per person.
@@ -74,7 +37,7 @@ describe('offline', () => {
     const [first, second, third, fourth] = [circuits[2]!, circuits[3]!, circuits[4]!, circuits[5]!];
 
     const page = await context.newPage();
-    await page.goto(`${server.url}/boards/${boardId}`);
+    await page.goto(`${env.server.url}/boards/${boardId}`);
     await page.getByRole('grid').waitFor();
 
     // Every API request fails, as with the network gone.

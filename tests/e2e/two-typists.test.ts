@@ -1,6 +1,7 @@
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoReviewer, demoTester, launchBrowser, startDemoServer, type DemoServer } from '../helpers/browser.ts';
+import type { BrowserContext, Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import { demoReviewer, demoTester, useDemoServerAndBrowser } from '../helpers/browser.ts';
+import { apiGet, cellText, pickPlainBoard, quickEntry, type CircuitInfo } from '../helpers/console-page.ts';
 
 /**
  * Two typists on one board, each in their own browser context (own session, own storage). Driven
@@ -8,69 +9,28 @@ import { demoReviewer, demoTester, launchBrowser, startDemoServer, type DemoServ
  * a focused button pressed with Enter. What was saved is checked through the API.
  */
 
-interface CircuitInfo {
-  id: number;
-  number: string;
-  cells: Record<string, { text: string; version: number } | undefined>;
-}
 
-let server: DemoServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await startDemoServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const env = useDemoServerAndBrowser();
 
 async function signedInContext(account: { email: string; password: string }): Promise<BrowserContext> {
-  const context = await browser.newContext();
-  const res = await context.request.post(`${server.url}/api/auth/sign-in`, { data: account });
+  const context = await env.browser.newContext();
+  const res = await context.request.post(`${env.server.url}/api/auth/sign-in`, { data: account });
   expect(res.status()).toBe(200);
   return context;
 }
 
-async function api<T>(context: BrowserContext, path: string): Promise<T> {
-  const res = await context.request.get(`${server.url}${path}`);
-  expect(res.status()).toBe(200);
-  return (await res.json()) as T;
-}
+const api = <T,>(context: BrowserContext, path: string) => apiGet<T>(context, env.server.url, path);
 
-/** The first open board whose circuits are numbered plainly (the house board of the demo). */
-async function pickBoard(context: BrowserContext): Promise<{ boardId: number; circuits: CircuitInfo[] }> {
-  const { boards } = await api<{ boards: { id: number; state: string }[] }>(context, '/api/boards');
-  for (const board of boards.filter((b) => b.state === 'open')) {
-    const detail = await api<{ circuits: CircuitInfo[] }>(context, `/api/boards/${board.id}`);
-    if (detail.circuits.length >= 8 && detail.circuits.every((c) => /^\d+[a-z]?$/.test(c.number))) return { boardId: board.id, circuits: detail.circuits };
-  }
-  throw new Error('No open demo board with plainly numbered circuits');
-}
+const pickBoard = (context: BrowserContext) => pickPlainBoard(context, env.server.url);
 
 async function openBoard(context: BrowserContext, boardId: number): Promise<Page> {
   const page = await context.newPage();
-  await page.goto(`${server.url}/boards/${boardId}`);
+  await page.goto(`${env.server.url}/boards/${boardId}`);
   await page.getByRole('grid').waitFor();
   return page;
 }
 
-/** Types one line on the quick-entry line, keyboard only. */
-async function quickEntry(page: Page, line: string): Promise<void> {
-  await page.getByRole('grid').focus();
-  await page.keyboard.press('Control+j');
-  const input = page.getByLabel('Quick entry');
-  await expect.poll(() => input.evaluate((el) => el === document.activeElement)).toBe(true);
-  await page.keyboard.type(line);
-  await page.keyboard.press('Enter');
-}
 
-/** The value shown in a grid cell (its first span; finding marks and their texts follow it). */
-function cellText(page: Page, circuitId: number, column: string): Promise<string> {
-  return page.locator(`[id="bw-cell-${circuitId}-${column}"] > span`).first().innerText();
-}
 
 async function serverCell(context: BrowserContext, boardId: number, circuitId: number, column: string) {
   const { circuits } = await api<{ circuits: CircuitInfo[] }>(context, `/api/boards/${boardId}`);

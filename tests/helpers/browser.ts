@@ -3,6 +3,7 @@ import os from 'node:os';
 import path from 'node:path';
 import type { Server } from 'node:http';
 import { chromium, type Browser } from 'playwright-core';
+import { afterAll, beforeAll } from 'vitest';
 import { createApp, sessionSecretFrom } from '../../server/app.ts';
 import { openDatabase, type DB } from '../../server/db/database.ts';
 import { migrateToLatest } from '../../server/db/migrate.ts';
@@ -69,3 +70,20 @@ export async function startDemoServer(): Promise<DemoServer> {
 export const demoTester = { email: 'tester@boardwalk.test', password: 'boardwalk-demo' };
 export const demoReviewer = { email: 'reviewer@boardwalk.test', password: 'boardwalk-demo' };
 export const demoAdmin = { email: 'admin@boardwalk.test', password: 'boardwalk-demo' };
+
+/**
+ * Starts the demo server and chromium once for a test file (beforeAll) and stops both after it
+ * (afterAll). Read `server` and `browser` inside tests, not at the top of the file.
+ */
+export function useDemoServerAndBrowser(): { readonly server: DemoServer; readonly browser: Browser } {
+  const handles = {} as { server: DemoServer; browser: Browser };
+  beforeAll(async () => {
+    handles.server = await startDemoServer();
+    handles.browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await handles.browser?.close();
+    await handles.server?.close();
+  });
+  return handles;
+}
