@@ -44,7 +44,13 @@ export function createApp(options: AppOptions): Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
-  app.use(helmet());
+  app.use(
+    helmet({
+      // Boardwalk is often run on a site laptop or a LAN over plain HTTP: upgrading every request
+      // to HTTPS would leave the page without its scripts there. Behind HTTPS nothing changes.
+      contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } },
+    }),
+  );
   app.use(express.json({ limit: '2mb' }));
   app.use(
     session({

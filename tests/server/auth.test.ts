@@ -104,3 +104,13 @@ describe('sign-in rate limit', () => {
     sqlite.close();
   });
 });
+
+describe('security headers', () => {
+  it('when any page is asked for, then a content security policy is sent that does not force HTTPS', async () => {
+    const res = await request(t.app).get('/api/auth/me');
+    const csp = String(res.headers['content-security-policy']);
+    expect(csp).toMatch(/default-src 'self'/);
+    expect(csp).not.toMatch(/upgrade-insecure-requests/);
+    expect(res.headers['x-content-type-options']).toBe('nosniff');
+  });
+});
