@@ -11,7 +11,7 @@
  * A handful of faults are planted on purpose for the checker to find; `plantedFaults` lists them.
  */
 import type { CircuitFields } from '../../../shared/schemas/boards.ts';
-import type { CircuitKind, ReadingKey } from '../../../shared/schemas/columns.ts';
+import { readingKeys, type CircuitKind, type ReadingKey } from '../../../shared/schemas/columns.ts';
 import type { Role } from '../../../shared/schemas/common.ts';
 import type { Job, Site } from '../../../shared/schemas/sites.ts';
 
@@ -564,32 +564,14 @@ const bakeryBoard: BoardSpec = {
 // Readings
 // ---------------------------------------------------------------------------------------------
 
-/** Columns in the order the tester types them, column by column down the board. */
-const entryOrder: readonly ReadingKey[] = [
-  'ringR1',
-  'ringRn',
-  'ringR2',
-  'r1PlusR2',
-  'irTestVoltage',
-  'irLiveLive',
-  'irLiveEarth',
-  'polarity',
-  'zs',
-  'rcdTimeMs',
-  'rcdButton',
-  'afddButton',
-];
+/**
+ * Columns in the order the tester types them, column by column down the board: the reading
+ * columns as the grid shows them, without R2 by long lead (R1+R2 is recorded instead).
+ */
+const entryOrder: readonly ReadingKey[] = readingKeys.filter((key) => key !== 'r2');
 
-const deadTestColumns: ReadonlySet<ReadingKey> = new Set([
-  'ringR1',
-  'ringRn',
-  'ringR2',
-  'r1PlusR2',
-  'irTestVoltage',
-  'irLiveLive',
-  'irLiveEarth',
-  'polarity',
-]);
+/** The dead tests: everything typed before Zs (continuity, insulation, polarity). */
+const deadTestColumns: ReadonlySet<ReadingKey> = new Set(entryOrder.slice(0, entryOrder.indexOf('zs')));
 
 /** End-to-end readings of a ring as measured, kept unrounded for the spurs that hang from it. */
 interface RingEnds {
