@@ -44,8 +44,11 @@ export function toSite(row: SiteRow): Site {
     description: row.description,
     earthing: row.earthing,
     nominalVoltageV: row.nominal_voltage_v,
+    contactName: row.contact_name,
+    contactEmail: row.contact_email,
     zeOhm: row.ze_ohm,
     pfcKa: row.pfc_ka,
+    version: row.version,
   };
 }
 
@@ -56,7 +59,12 @@ export function toJob(row: JobRow): Job {
     kind: row.kind,
     reference: row.reference,
     visitDate: row.visit_date,
+    visitEndDate: row.visit_end_date,
     limitations: row.limitations,
+    state: row.state,
+    startedFromJobId: row.started_from_job_id,
+    createdAt: row.created_at,
+    version: row.version,
   };
 }
 

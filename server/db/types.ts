@@ -19,6 +19,9 @@ export interface SiteTable {
   nominal_voltage_v: Generated<number>;
   ze_ohm: number | null;
   pfc_ka: number | null;
+  contact_name: Generated<string>;
+  contact_email: Generated<string>;
+  version: Generated<number>;
 }
 
 export interface JobTable {
@@ -28,6 +31,36 @@ export interface JobTable {
   reference: string;
   visit_date: string;
   limitations: Generated<string>;
+  visit_end_date: string | null;
+  state: Generated<'entering' | 'ready' | 'approved' | 'issued'>;
+  version: Generated<number>;
+  started_from_job_id: number | null;
+  created_at: Generated<string>;
+}
+
+/** One section of a job's record (see shared/schemas/job-record.ts); `data` is JSON text. */
+export interface JobSectionTable {
+  job_id: number;
+  section: string;
+  data: string;
+  version: Generated<number>;
+  updated_by: number | null;
+  updated_at: string;
+}
+
+/** Append-only history of a job: its record, details and state. Values are JSON text. */
+export interface JobHistoryTable {
+  id: Generated<number>;
+  job_id: number;
+  section: string | null;
+  field: string | null;
+  action: string;
+  old_text: string | null;
+  new_text: string | null;
+  reason: string | null;
+  user_id: number | null;
+  at: string;
+  version: number | null;
 }
 
 export interface BoardTable {
@@ -74,6 +107,7 @@ export interface CircuitTable {
   spur_origin_point: string | null;
   spur_length_m: number | null;
   max_zs_by_hand_ohm: number | null;
+  previous_circuit_id: number | null;
   version: Generated<number>;
 }
 
@@ -114,6 +148,8 @@ export interface Database {
   users: UserTable;
   sites: SiteTable;
   jobs: JobTable;
+  job_sections: JobSectionTable;
+  job_history: JobHistoryTable;
   boards: BoardTable;
   circuits: CircuitTable;
   cells: CellTable;
@@ -125,6 +161,8 @@ export type UserRow = Selectable<UserTable>;
 export type NewUserRow = Insertable<UserTable>;
 export type SiteRow = Selectable<SiteTable>;
 export type JobRow = Selectable<JobTable>;
+export type JobSectionRow = Selectable<JobSectionTable>;
+export type JobHistoryRow = Selectable<JobHistoryTable>;
 export type BoardRow = Selectable<BoardTable>;
 export type CircuitRow = Selectable<CircuitTable>;
 export type NewCircuitRow = Insertable<CircuitTable>;

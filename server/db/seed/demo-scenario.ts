@@ -67,9 +67,9 @@ export interface DemoBoard {
   circuits: DemoCircuit[];
 }
 
-export type DemoJob = Omit<Job, 'id' | 'siteId'> & { boards: DemoBoard[] };
+export type DemoJob = Pick<Job, 'kind' | 'reference' | 'visitDate' | 'limitations'> & { boards: DemoBoard[] };
 
-export type DemoSite = Omit<Site, 'id'> & { jobs: DemoJob[] };
+export type DemoSite = Omit<Site, 'id' | 'contactName' | 'contactEmail' | 'version'> & { jobs: DemoJob[] };
 
 export interface DemoScenario {
   /** The contractor the demo people work for (printed nowhere yet; kept for the story). */

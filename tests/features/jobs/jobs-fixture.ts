@@ -3,14 +3,14 @@ import type { Job, Site } from '../../../shared/schemas/sites.ts';
 
 /** Two invented sites: one with an EICR of two boards, one with an EIC of one locked board. */
 export const sites: Site[] = [
-  { id: 1, client: 'Harbour Bakery', address: '4 Quay Street, Porthmoor', description: '', earthing: 'TN-C-S', nominalVoltageV: 230, zeOhm: 0.21, pfcKa: 2.1 },
-  { id: 2, client: 'Ellis Lodge', address: '12 Fern Road, Ashby', description: '', earthing: 'TT', nominalVoltageV: 230, zeOhm: 21, pfcKa: 0.4 },
-  { id: 3, client: 'Tollgate Garage', address: '1 Mill Lane, Ashby', description: '', earthing: 'TN-S', nominalVoltageV: 230, zeOhm: null, pfcKa: null },
+  { id: 1, client: 'Harbour Bakery', address: '4 Quay Street, Porthmoor', description: '', contactName: '', contactEmail: '', earthing: 'TN-C-S', nominalVoltageV: 230, zeOhm: 0.21, pfcKa: 2.1, version: 1 },
+  { id: 2, client: 'Ellis Lodge', address: '12 Fern Road, Ashby', description: '', contactName: '', contactEmail: '', earthing: 'TT', nominalVoltageV: 230, zeOhm: 21, pfcKa: 0.4, version: 1 },
+  { id: 3, client: 'Tollgate Garage', address: '1 Mill Lane, Ashby', description: '', contactName: '', contactEmail: '', earthing: 'TN-S', nominalVoltageV: 230, zeOhm: null, pfcKa: null, version: 1 },
 ];
 
 export const jobs: Job[] = [
-  { id: 10, siteId: 1, kind: 'EICR', reference: 'HB-2026-01', visitDate: '2026-11-20', limitations: '' },
-  { id: 20, siteId: 2, kind: 'EIC', reference: 'EL-NEW-3', visitDate: '2026-10-02', limitations: '' },
+  { id: 10, siteId: 1, kind: 'EICR', reference: 'HB-2026-01', visitDate: '2026-11-20', visitEndDate: null, limitations: '', state: 'entering', startedFromJobId: null, createdAt: '2026-11-01T09:00:00.000Z', version: 1 },
+  { id: 20, siteId: 2, kind: 'EIC', reference: 'EL-NEW-3', visitDate: '2026-10-02', visitEndDate: null, limitations: '', state: 'entering', startedFromJobId: null, createdAt: '2026-11-01T09:00:00.000Z', version: 1 },
 ];
 
 const board = (id: number, jobId: number, reference: string, location: string, state: 'open' | 'locked', circuitCount: number, cellsFilled: number): BoardSummary => {
