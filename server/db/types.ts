@@ -139,6 +139,72 @@ export interface HistoryTable {
   version: number | null;
 }
 
+/** A file kept on disk under the data folder (`path` is relative to it). */
+export interface FileTable {
+  id: Generated<number>;
+  kind: string;
+  path: string;
+  sha256: string;
+  mime: string;
+  size_bytes: number;
+  original_name: string | null;
+  job_id: number | null;
+  board_id: number | null;
+  uploaded_by: number | null;
+  created_at: Generated<string>;
+}
+
+/** An error finding a reviewer accepted with a written reason. */
+export interface FindingAcceptanceTable {
+  id: Generated<number>;
+  job_id: number;
+  board_id: number | null;
+  finding_key: string;
+  code: string;
+  message: string;
+  reason: string;
+  accepted_by: number;
+  accepted_at: Generated<string>;
+}
+
+export interface SignatureTable {
+  id: Generated<number>;
+  job_id: number;
+  role: 'designer' | 'constructor' | 'inspector' | 'reviewer';
+  name: string;
+  file_id: number;
+  user_id: number;
+  signed_at: Generated<string>;
+}
+
+/** One issued revision of a job's document: frozen once written (only `superseded_at` is set later). */
+export interface JobIssueTable {
+  id: Generated<number>;
+  job_id: number;
+  revision: number;
+  file_id: number;
+  sha256: string;
+  issued_by: number;
+  issued_at: Generated<string>;
+  superseded_at: string | null;
+}
+
+export interface OutgoingMailTable {
+  id: Generated<number>;
+  job_id: number;
+  issue_id: number | null;
+  to_address: string;
+  subject: string;
+  body: string;
+  state: Generated<'waiting' | 'sending' | 'sent' | 'failed'>;
+  attempts: Generated<number>;
+  last_error: string | null;
+  message_id: string | null;
+  created_by: number | null;
+  created_at: Generated<string>;
+  sent_at: string | null;
+}
+
 export interface AppSettingTable {
   key: string;
   value: string;
@@ -155,6 +221,11 @@ export interface Database {
   cells: CellTable;
   history: HistoryTable;
   app_settings: AppSettingTable;
+  files: FileTable;
+  finding_acceptances: FindingAcceptanceTable;
+  signatures: SignatureTable;
+  job_issues: JobIssueTable;
+  outgoing_mail: OutgoingMailTable;
 }
 
 export type UserRow = Selectable<UserTable>;
@@ -169,3 +240,8 @@ export type NewCircuitRow = Insertable<CircuitTable>;
 export type CircuitUpdate = Updateable<CircuitTable>;
 export type CellRow = Selectable<CellTable>;
 export type HistoryRow = Selectable<HistoryTable>;
+export type FileRow = Selectable<FileTable>;
+export type FindingAcceptanceRow = Selectable<FindingAcceptanceTable>;
+export type SignatureRow = Selectable<SignatureTable>;
+export type JobIssueRow = Selectable<JobIssueTable>;
+export type OutgoingMailRow = Selectable<OutgoingMailTable>;
