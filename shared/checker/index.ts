@@ -143,3 +143,11 @@ export {
 } from './reference-data.ts';
 
 export { roundHalfUp, formatFixed } from './decimal.ts';
+
+export {
+  /** Every finding about a job as a whole: its record, and the record against its boards. */
+  checkJob,
+  jobRules,
+  type JobCheckInput,
+  type JobCheckBoard,
+} from './job-rules.ts';

@@ -19,5 +19,10 @@ export const findingSchema = z.object({
   limit: z.string().nullable(),
   /** Where the limit comes from: a standard's table, a formula, or "common practice". */
   source: z.string().nullable(),
+  /** Job findings only: the board it concerns (null or absent for the job record as a whole). */
+  boardId: z.number().int().nullable().optional(),
+  /** Job findings only: the section of the job record (see job-record.ts) and the field in it. */
+  section: z.string().optional(),
+  field: z.string().optional(),
 });
 export type Finding = z.infer<typeof findingSchema>;
