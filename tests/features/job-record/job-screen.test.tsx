@@ -110,3 +110,24 @@ describe('job screen: fields save on leaving them', () => {
     expect(screen.getByLabelText('Earthing system')).toBeDisabled();
   });
 });
+
+describe('job screen: an observation edited by two people', () => {
+  it('when someone else changed the observation meanwhile, then the form says so with theirs, and keep mine stores mine', async () => {
+    const server = createFakeJobServer('EICR');
+    const first = { number: 1, text: 'Outside socket has no RCD', location: 'Yard', code: 'C3' as const, boardId: null, circuitId: null, inspectionItem: null };
+    server.writeAsOther('observations', 'o-0a0b0c0d0e', first);
+    const { user } = renderJob(server);
+    await user.click(await screen.findByRole('button', { name: 'Edit observation 1' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Observation 1' });
+    server.writeAsOther('observations', 'o-0a0b0c0d0e', { ...first, text: 'Outside socket has no RCD and a cracked lid' });
+
+    await user.selectOptions(within(dialog).getByLabelText('Code'), 'C2');
+    await user.click(within(dialog).getByRole('button', { name: 'Save the observation' }));
+    const alert = await within(dialog).findByRole('alert');
+    await waitFor(() => expect(alert).toHaveTextContent('theirs reads “Outside socket has no RCD and a cracked lid” (C3)'));
+
+    await user.click(within(alert).getByRole('button', { name: 'Keep mine' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(server.record.observations.data['o-0a0b0c0d0e']).toMatchObject({ text: 'Outside socket has no RCD', code: 'C2' });
+  });
+});
