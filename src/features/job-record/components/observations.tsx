@@ -213,7 +213,10 @@ export function ObservationForm({ target, onDone }: { target: ObservationFormTar
     if (outcome === 'saved') onDone();
   }
 
-  const fieldError = (field: FormField) => errors?.fields[field];
+  // The server's own refusals (a board not on this job, a number taken meanwhile) name the field as `<id>.<field>`.
+  const serverIssues = state?.status === 'error' ? (state.issues ?? []) : [];
+  const serverError = (field: FormField) => serverIssues.find((issue) => issue.path.split('.').slice(-1)[0] === field && issue.path.includes(id))?.message;
+  const fieldError = (field: FormField) => errors?.fields[field] ?? serverError(field);
   const control = (field: FormField) => ({
     id: fid(field),
     name: field,
@@ -298,6 +301,7 @@ export function ObservationForm({ target, onDone }: { target: ObservationFormTar
               </option>
             ))}
           </select>
+          {errorText('boardId')}
         </div>
         <div className="space-y-1">
           <label htmlFor={fid('circuitId')} className="block font-medium">
@@ -311,6 +315,7 @@ export function ObservationForm({ target, onDone }: { target: ObservationFormTar
               </option>
             ))}
           </select>
+          {errorText('circuitId')}
         </div>
       </div>
       <div className="space-y-1">
@@ -329,6 +334,7 @@ export function ObservationForm({ target, onDone }: { target: ObservationFormTar
             </optgroup>
           ))}
         </select>
+        {errorText('inspectionItem')}
         {initial.inspectionItem && <p className="text-xs text-muted">Raised from item {initial.inspectionItem}: {inspectionItemsById.get(initial.inspectionItem)?.text}</p>}
       </div>
       <div className="space-y-2">
@@ -337,7 +343,7 @@ export function ObservationForm({ target, onDone }: { target: ObservationFormTar
         </button>
         <p className="text-xs text-muted">Enter saves (Ctrl+Enter in the description) · Esc closes without saving</p>
         <div role="alert" className="text-danger empty:hidden">
-          {state?.status === 'error' && state.message}
+          {state?.status === 'error' && !formFields.some((field) => serverError(field)) && state.message}
           {state?.status === 'conflict' && (
             <span className="flex flex-wrap items-center gap-2">
               <span>Someone else changed this observation since you opened it{theirsText(state.theirs)}.</span>
