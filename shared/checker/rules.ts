@@ -231,35 +231,42 @@ interface ZsLimit {
   result: MaxZsResult;
   timeS: number | null;
   timeAssumed: boolean;
+  /** Where an assumed time comes from (the Table 41.1 row for the site's U0). */
+  timeSource: string;
   /** True when the limit is the TT RCD one (50 V / IΔn), to which the 0.8 rule does not apply. */
   rcdBased: boolean;
 }
 
 function zsLimitOf(c: CheckCircuit, ctx: BoardContext): ZsLimit {
   if (ctx.earthing === 'TT' && c.rcdType && c.rcdRatedResidualMa !== null) {
-    return { result: rcdMaxZsTT(c.rcdRatedResidualMa), timeS: null, timeAssumed: false, rcdBased: true };
+    return { result: rcdMaxZsTT(c.rcdRatedResidualMa), timeS: null, timeAssumed: false, timeSource: '', rcdBased: true };
   }
   const timeAssumed = c.maxDisconnectionS === null;
-  const timeS = c.maxDisconnectionS ?? defaultDisconnectionTimeS({ earthing: ctx.earthing, kind: c.kind, ratingA: c.ratingA, u0: ctx.u0 }).seconds;
+  const assumed = timeAssumed ? defaultDisconnectionTimeS({ earthing: ctx.earthing, kind: c.kind, ratingA: c.ratingA, u0: ctx.u0 }) : null;
+  const timeS = c.maxDisconnectionS ?? assumed!.seconds;
+  const timeSource = assumed?.source ?? TABLE_41_1_SOURCE;
   if (c.maxZsByHandOhm != null && (c.deviceStandard.trim() === '' || c.ratingA === null)) {
-    return byHand(c, c.maxZsByHandOhm, 'the device is not fully recorded', timeS, timeAssumed);
+    return byHand(c, c.maxZsByHandOhm, 'the device is not fully recorded', timeS, timeAssumed, timeSource);
   }
   if (c.deviceStandard.trim() === '') {
-    return { result: { ok: false, reason: 'no protective device is recorded' }, timeS, timeAssumed, rcdBased: false };
+    return { result: { ok: false, reason: 'no protective device is recorded' }, timeS, timeAssumed, timeSource, rcdBased: false };
   }
   if (c.ratingA === null) {
-    return { result: { ok: false, reason: 'the device rating In is not recorded' }, timeS, timeAssumed, rcdBased: false };
+    return { result: { ok: false, reason: 'the device rating In is not recorded' }, timeS, timeAssumed, timeSource, rcdBased: false };
   }
   const result = maxZs({ standard: c.deviceStandard, type: c.deviceType, ratingA: c.ratingA, disconnectionTimeS: timeS, u0: ctx.u0 });
-  if (!result.ok && c.maxZsByHandOhm != null) return byHand(c, c.maxZsByHandOhm, result.reason, timeS, timeAssumed);
-  return { result, timeS, timeAssumed, rcdBased: false };
+  if (!result.ok && c.maxZsByHandOhm != null) return byHand(c, c.maxZsByHandOhm, result.reason, timeS, timeAssumed, timeSource);
+  if (!result.ok && timeAssumed) {
+    return { result: { ok: false, reason: `${result.reason} (${timeS} s assumed from ${timeSource})` }, timeS, timeAssumed, timeSource, rcdBased: false };
+  }
+  return { result, timeS, timeAssumed, timeSource, rcdBased: false };
 }
 
 /**
  * A limit the tester entered by hand because the tables do not cover the device: used, and
  * labelled as such so a reviewer sees it was not looked up.
  */
-function byHand(c: CheckCircuit, limitOhm: number, why: string, timeS: number, timeAssumed: boolean): ZsLimit {
+function byHand(c: CheckCircuit, limitOhm: number, why: string, timeS: number, timeAssumed: boolean, timeSource: string): ZsLimit {
   const device = [c.deviceStandard.trim(), c.deviceType.trim(), c.ratingA === null ? '' : `${c.ratingA} A`].filter(Boolean).join(' ') || 'device';
   return {
     result: {
@@ -271,6 +278,7 @@ function byHand(c: CheckCircuit, limitOhm: number, why: string, timeS: number, t
     },
     timeS,
     timeAssumed,
+    timeSource,
     rcdBased: false,
   };
 }
@@ -374,7 +382,9 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   }
 
   const zsCell = parsed.zs;
-  const zs = plainNumber(zsCell);
+  const zsValue = plainNumber(zsCell);
+  // A Zs of 0 is not a measurement (said by its own finding): nothing to compare.
+  const zs = zsValue === 0 ? null : zsValue;
   const r1PlusR2 = plainNumber(parsed.r1PlusR2);
 
   zsRules(c, ctx, parsed, out);
@@ -457,7 +467,7 @@ function zsRules(c: CheckCircuit, ctx: BoardContext, parsed: Readonly<Record<Rea
       ),
     );
   }
-  const { result, timeS, timeAssumed, rcdBased } = zsLimitOf(c, ctx);
+  const { result, timeS, timeAssumed, timeSource, rcdBased } = zsLimitOf(c, ctx);
   if (!result.ok) {
     out.push(finding('zs-limit-unknown', c.id, ['zs', 'deviceStandard'], `Zs ${show(parsed, 'zs')} not checked: ${lowerFirst(result.reason)}`, null, null));
     return;
@@ -470,8 +480,8 @@ function zsRules(c: CheckCircuit, ctx: BoardContext, parsed: Readonly<Record<Rea
   if (!over && !overRule) return;
   const shown = show(parsed, 'zs');
   const timeText = timeS === null ? '' : ` at ${timeS} s`;
-  const assumedNote = timeAssumed ? ` (${timeS} s assumed from ${TABLE_41_1_SOURCE})` : '';
-  const source = timeAssumed ? `${result.source}; ${timeS} s from ${TABLE_41_1_SOURCE}` : result.source;
+  const assumedNote = timeAssumed ? ` (${timeS} s assumed from ${timeSource})` : '';
+  const source = timeAssumed ? `${result.source}; ${timeS} s from ${timeSource}` : result.source;
   if (over) {
     out.push(finding('zs-over-max', c.id, ['zs'], `Zs ${shown} is over the maximum ${ohmText(limit)} Ω for a ${result.device}${timeText}${assumedNote}.`, `≤ ${ohmText(limit)} Ω`, source));
     return;
