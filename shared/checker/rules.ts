@@ -756,7 +756,7 @@ function ringRules(c: CheckCircuit, r1: number | null, rn: number | null, r2: nu
       const half = (r1 + r2) / 2;
       const why =
         Math.abs(r1PlusR2 - half) <= RING_R1R2_ALLOWANCE_OHM + EPS
-          ? `about (r1+r2)/2 = ${formatFixed(half, 2)} Ω, twice what a correctly cross-connected ring reads: were the ends linked wrongly at step 3?`
+          ? `about (r1+r2)/2 = ${formatFixed(half, 2)} Ω, twice the most a correctly cross-connected ring reads. With only one of the two cross-connections made (or one loose) the ring is a single path and a socket mid-ring reads (r1+r2)/2: were both ends linked, line to the opposite cpc, at step 3?`
           : 'a spur, a loose termination, or a reading at the wrong point.';
       out.push(
         finding('ring-r1r2-inconsistent', id, ['r1PlusR2', 'ringR1', 'ringR2'], `R1+R2 ${ohmReading(r1PlusR2)} Ω is above (r1+r2)/4 = ${formatFixed(quarter, 2)} Ω: ${why}`, quarterLimit(quarter), source),

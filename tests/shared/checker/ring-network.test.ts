@@ -380,3 +380,14 @@ describe('ringProfile without socket positions (the usual case): judged on the r
     expect(profile.verdict).toBe('low-points');
   });
 });
+
+describe('one cross-connection missing (why R1+R2 ≈ (r1+r2)/2 points at the links)', () => {
+  it('with only line A linked to cpc B, a socket mid-ring reads (r1+r2)/2: a series path (mathjs network)', () => {
+    // 9 sockets, 5 m apart, 2.5/1.5 (IEC 60228 Table 2: 7.41 and 12.1 mΩ/m): socket 5 is mid-ring; x·r1 + (1−x)·r2 at x = ½.
+    const n = 9;
+    const ring: Ring = { n, line: Array(n + 1).fill(0.03705), cpc: Array(n + 1).fill(0.0605), r1: 0.03705 * (n + 1), r2: 0.0605 * (n + 1) };
+    const oneLink: Array<[number, number]> = [[L(ring, 0), C(ring, n + 1)]];
+    const mid = networkResistance(2 * n + 4, ringResistors(ring), oneLink, L(ring, 5), C(ring, 5));
+    expect(mid).toBeCloseTo((ring.r1 + ring.r2) / 2, 9);
+  });
+});
