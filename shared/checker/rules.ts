@@ -38,6 +38,7 @@ import {
   ZS_RULE_OF_THUMB_FACTOR,
   ZS_RULE_OF_THUMB_SOURCE,
 } from './reference-data.ts';
+import { previousReadingCodes, previousReadingFindings } from './previous-readings.ts';
 import { correctRingReading } from './ring.ts';
 
 // ---------------------------------------------------------------------------------------------
@@ -79,6 +80,7 @@ export const findingCodes = {
   'circuit-untested': 'warning',
   'circuit-number-duplicate': 'warning',
   'readings-look-calculated': 'note',
+  ...previousReadingCodes,
 } as const satisfies Record<string, Severity>;
 
 export type FindingCode = keyof typeof findingCodes;
@@ -399,6 +401,7 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   const ringR2 = plainNumber(parsed.ringR2);
   let ringTextbook: boolean | null = null;
   if (c.kind === 'ring') ringTextbook = ringRules(c, ringR1, ringRn, ringR2, r1PlusR2, out);
+  if (c.previous !== undefined) for (const f of previousReadingFindings(c, parsed)) out.push(f);
 
   out.sort(compareFindings);
   const numberKey = c.phase === null ? c.number.trim().toUpperCase() : `${c.number.trim().toUpperCase()}|${c.phase}`;
