@@ -57,8 +57,12 @@ function note(code: keyof typeof previousReadingCodes, circuitId: number, key: R
   return { code, severity: previousReadingCodes[code], circuitId, columns: [key], message, limit, source };
 }
 
-function percent(value: number): string {
-  return `${formatFixed(value * 100, 0)} %`;
+/**
+ * `part / whole` as a whole percentage, rounded half-up. Readings are scaled to whole thousandths
+ * first, so 0.22 / 0.80 gives exactly 27.5 % (→ 28 %) rather than a binary 27.4999….
+ */
+function percent(part: number, whole: number): string {
+  return `${formatFixed((Math.round(part * 1000) * 100) / Math.round(whole * 1000), 0)} %`;
 }
 
 /**
@@ -101,7 +105,7 @@ export function previousReadingFindings(circuit: CheckCircuit, parsed: Readonly<
             'ir-fallen-since-last-time',
             circuit.id,
             key,
-            `${grammar.label} ${nowText} has fallen from ${thenText} last time${then.kind === 'number' && then.value > 0 ? ` (to ${percent(now.value / then.value)})` : ''}: damp, damage or a new load connected? Worth a look.`,
+            `${grammar.label} ${nowText} has fallen from ${thenText} last time${then.kind === 'number' && then.value >= 0.001 ? ` (to ${percent(now.value, then.value)})` : ''}: damp, damage or a new load connected? Worth a look.`,
             `≥ ${formatFixed(half, half >= 10 ? 0 : 2)} MΩ (half of last time’s ${thenText})`,
             PREVIOUS_IR_SOURCE,
           ),
@@ -116,7 +120,7 @@ export function previousReadingFindings(circuit: CheckCircuit, parsed: Readonly<
     // This time's ">N" is more than N: risen for certain when N already reaches the ceiling.
     const risen = now.kind === 'number' ? now.value > ceiling + EPS : now.value >= ceiling - EPS;
     if (!risen) continue;
-    const rise = then.value > 0 && now.kind === 'number' ? ` (+${percent(now.value / then.value - 1)})` : '';
+    const rise = then.value >= 0.001 && now.kind === 'number' ? ` (+${percent(now.value - then.value, then.value)})` : '';
     const limit = `≤ ${ohmText(ceiling)} Ω (last time’s ${thenText} + a fifth, at least + ${RISE_MIN_OHM} Ω)`;
     if (kind === 'zs') {
       out.push(
