@@ -45,13 +45,16 @@ export const PREVIOUS_RISE_SOURCE =
 
 const EPS = 1e-9;
 
-const COMPARED: ReadonlyArray<{ key: ReadingKey; kind: 'ir' | 'zs' | 'continuity' }> = [
-  { key: 'irLiveLive', kind: 'ir' },
-  { key: 'irLiveEarth', kind: 'ir' },
-  { key: 'zs', kind: 'zs' },
-  { key: 'r1PlusR2', kind: 'continuity' },
-  { key: 'r2', kind: 'continuity' },
-];
+/** The columns compared, what kind of reading each is, and its grammar: held in arrays for the loop. */
+const COMPARED_KEYS: readonly ReadingKey[] = ['irLiveLive', 'irLiveEarth', 'zs', 'r1PlusR2', 'r2'];
+const COMPARED_KINDS: ReadonlyArray<'ir' | 'zs' | 'continuity'> = ['ir', 'ir', 'zs', 'continuity', 'continuity'];
+const COMPARED_GRAMMARS = COMPARED_KEYS.map((key) => cellGrammars[key]);
+const COMPARED_COUNT = COMPARED_KEYS.length;
+/**
+ * Imported functions held locally: some module loaders (tsx's CommonJS interop among them) reach
+ * an imported binding through a getter on every call (as in rules.ts).
+ */
+const parse = parseWithGrammar;
 
 function note(code: keyof typeof previousReadingCodes, circuitId: number, key: ReadingKey, message: string, limit: string, source: string): Finding {
   return { code, severity: previousReadingCodes[code], circuitId, columns: [key], message, limit, source };
@@ -80,26 +83,35 @@ export function previousCell(circuit: Pick<CheckCircuit, 'previous'>, key: Readi
  * a note is given only when the change is certain whatever lies beyond a ">N".
  */
 export function previousReadingFindings(circuit: CheckCircuit, parsed: Readonly<Record<ReadingKey, ParsedCell>>): Finding[] {
-  const previous = circuit.previous;
-  if (previous === undefined) return [];
   const out: Finding[] = [];
-  for (const { key, kind } of COMPARED) {
+  pushPreviousReadingFindings(circuit, parsed, out);
+  return out;
+}
+
+/** `previousReadingFindings`, pushing onto the board checker's list for the circuit. */
+export function pushPreviousReadingFindings(circuit: CheckCircuit, parsed: Readonly<Record<ReadingKey, ParsedCell>>, out: Finding[]): void {
+  const previous = circuit.previous;
+  if (previous === undefined) return;
+  for (let k = 0; k < COMPARED_COUNT; k++) {
+    const key = COMPARED_KEYS[k]!;
     const before = previous[key];
     if (before === undefined) continue;
     const now = parsed[key];
     if (now.kind !== 'number' && now.kind !== 'over-range') continue;
-    const grammar = cellGrammars[key];
-    const then = parseWithGrammar(grammar, before.text);
+    const kind = COMPARED_KINDS[k]!;
+    // Insulation: only a plain number below 100 MΩ this time can show a fall (see below).
+    if (kind === 'ir' && (now.kind !== 'number' || now.value >= IR_FALL_IGNORED_FROM_MEGOHM - EPS)) continue;
+    const grammar = COMPARED_GRAMMARS[k]!;
+    const then = parse(grammar, before.text);
     if (then.kind !== 'number' && then.kind !== 'over-range') continue;
-    const nowText = readingText(now, grammar.unit);
-    const thenText = readingText(then, grammar.unit);
 
     if (kind === 'ir') {
       // Fallen for certain only when this time's is a plain number below half of last time's
       // (last time's ">N" is at least N, so half of it is at least N/2).
-      if (now.kind !== 'number' || now.value >= IR_FALL_IGNORED_FROM_MEGOHM - EPS) continue;
       const half = then.value * IR_FALL_FRACTION;
       if (now.value < half - EPS) {
+        const nowText = readingText(now, grammar.unit);
+        const thenText = readingText(then, grammar.unit);
         out.push(
           note(
             'ir-fallen-since-last-time',
@@ -120,6 +132,8 @@ export function previousReadingFindings(circuit: CheckCircuit, parsed: Readonly<
     // This time's ">N" is more than N: risen for certain when N already reaches the ceiling.
     const risen = now.kind === 'number' ? now.value > ceiling + EPS : now.value >= ceiling - EPS;
     if (!risen) continue;
+    const nowText = readingText(now, grammar.unit);
+    const thenText = readingText(then, grammar.unit);
     const rise = then.value >= 0.001 && now.kind === 'number' ? ` (+${percent(now.value - then.value, then.value)})` : '';
     const limit = `≤ ${ohmText(ceiling)} Ω (last time’s ${thenText} + a fifth, at least + ${RISE_MIN_OHM} Ω)`;
     if (kind === 'zs') {
@@ -146,5 +160,4 @@ export function previousReadingFindings(circuit: CheckCircuit, parsed: Readonly<
       );
     }
   }
-  return out;
 }

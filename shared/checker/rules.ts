@@ -38,7 +38,7 @@ import {
   ZS_RULE_OF_THUMB_FACTOR,
   ZS_RULE_OF_THUMB_SOURCE,
 } from './reference-data.ts';
-import { previousReadingCodes, previousReadingFindings } from './previous-readings.ts';
+import { previousReadingCodes, pushPreviousReadingFindings } from './previous-readings.ts';
 import { correctRingReading } from './ring.ts';
 
 // ---------------------------------------------------------------------------------------------
@@ -401,7 +401,7 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   const ringR2 = plainNumber(parsed.ringR2);
   let ringTextbook: boolean | null = null;
   if (c.kind === 'ring') ringTextbook = ringRules(c, ringR1, ringRn, ringR2, r1PlusR2, out);
-  if (c.previous !== undefined) for (const f of previousReadingFindings(c, parsed)) out.push(f);
+  if (c.previous !== undefined) pushPreviousReadingFindings(c, parsed, out);
 
   out.sort(compareFindings);
   const numberKey = c.phase === null ? c.number.trim().toUpperCase() : `${c.number.trim().toUpperCase()}|${c.phase}`;
