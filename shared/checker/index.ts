@@ -171,7 +171,5 @@ export {
 export {
   /** Notes on a circuit's readings against the same circuit last time (called by `checkBoard`). */
   previousReadingFindings,
-  /** Last time's cell of a column, parsed (for showing it beside the reading). */
-  previousCell,
   previousReadingCodes,
 } from './previous-readings.ts';

@@ -69,15 +69,6 @@ function percent(part: number, whole: number): string {
 }
 
 /**
- * Last time's cell of one column, parsed; `empty` when there was none. Exported for the console,
- * which shows last time's value beside the active cell.
- */
-export function previousCell(circuit: Pick<CheckCircuit, 'previous'>, key: ReadingKey): ParsedCell {
-  const cell = circuit.previous?.[key];
-  return cell ? parseWithGrammar(cellGrammars[key], cell.text) : { kind: 'empty' };
-}
-
-/**
  * Notes on a circuit's readings against the same circuit last time. `parsed` holds this time's
  * cells as the board checker read them. Only plain numbers and ">N" (a lower bound) take part, and
  * a note is given only when the change is certain whatever lies beyond a ">N".
