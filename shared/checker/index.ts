@@ -72,7 +72,11 @@ export {
 } from './rules.ts';
 
 export {
-  /** Diagnoses a ring from its L-cpc readings at each socket, with the value to record as R1+R2. */
+  /**
+   * Diagnoses a ring from its L-cpc readings at each socket, with the value to record as R1+R2.
+   * Without socket positions (the usual case) each reading is judged against the range a sound ring
+   * reads anywhere, r1·r2/(r1+r2) … (r1+r2)/4.
+   */
   ringProfile,
   /** The reading at a socket of a cross-connected ring (correct or same-end linking). */
   ringReadingAt,
@@ -117,7 +121,16 @@ export {
   breakerTripMultiples,
   fuseTables,
   disconnectionTimes,
+  finalCircuitTimesByU0,
   defaultDisconnectionTimeS,
+  REDUCED_TEST_VOLTAGE_MINIMUM_MEGOHM,
+  REDUCED_TEST_VOLTAGE_SOURCE,
+  TT_ELECTRODE_STABLE_UP_TO_OHM,
+  TT_ELECTRODE_STABLE_SOURCE,
+  twinAndEarthCapacityMethodC,
+  TWIN_AND_EARTH_CAPACITY_SOURCE,
+  rcdFiveTimesDelayedLimit,
+  SOCKET_RCD_SOURCE,
   insulationMinima,
   insulationMinimum,
   rcdTimeLimits,
@@ -140,6 +153,7 @@ export {
   type InsulationMinimum,
   type RcdTimeLimit,
   type DisconnectionTimeRow,
+  type FinalCircuitTimeRow,
   type Lookup,
 } from './reference-data.ts';
 

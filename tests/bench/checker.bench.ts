@@ -101,6 +101,8 @@ function generateBoard(count: number): CheckInput {
       liveCsaMm2: cable.live,
       cpcCsaMm2: cable.cpc,
       maxDisconnectionS: kind === 'distribution' ? 5 : 0.4,
+      // Radials carry their length, so the length rule runs on every one of them.
+      cableLengthM: kind === 'radial' ? Number(lengthM.toFixed(1)) : null,
       deviceStandard: kind === 'distribution' ? '88-2' : '60898',
       deviceType: kind === 'distribution' ? 'gG' : 'B',
       ratingA: kind === 'ring' ? 32 : kind === 'distribution' ? 63 : kind === 'spur' ? 20 : 16,
