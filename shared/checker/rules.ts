@@ -56,6 +56,7 @@ import {
   ZS_RULE_OF_THUMB_FACTOR,
   ZS_RULE_OF_THUMB_SOURCE,
 } from './reference-data.ts';
+import { previousReadingCodes, pushPreviousReadingFindings } from './previous-readings.ts';
 import { correctRingReading } from './ring.ts';
 
 // ---------------------------------------------------------------------------------------------
@@ -106,6 +107,7 @@ export const findingCodes = {
   'circuit-untested': 'warning',
   'circuit-number-duplicate': 'warning',
   'readings-look-calculated': 'note',
+  ...previousReadingCodes,
 } as const satisfies Record<string, Severity>;
 
 export type FindingCode = keyof typeof findingCodes;
@@ -440,6 +442,7 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   const ringR2 = plainNumber(parsed.ringR2);
   let ringTextbook: boolean | null = null;
   if (c.kind === 'ring') ringTextbook = ringRules(c, ringR1, ringRn, ringR2, r1PlusR2, out);
+  if (c.previous !== undefined) pushPreviousReadingFindings(c, parsed, out);
 
   out.sort(compareFindings);
   const numberKey = c.phase === null ? c.number.trim().toUpperCase() : `${c.number.trim().toUpperCase()}|${c.phase}`;
