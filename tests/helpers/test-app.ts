@@ -1,4 +1,7 @@
+import fs from 'node:fs';
 import type { Server } from 'node:http';
+import os from 'node:os';
+import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import bcrypt from 'bcryptjs';
 import request from 'supertest';
@@ -11,6 +14,8 @@ export const password = 'correct horse battery';
 
 export interface TestApp {
   db: DB;
+  /** A fresh temporary data folder (stored files, mailbox), removed by `close()`. */
+  dataDir: string;
   app: ReturnType<typeof createApp>;
   ids: { admin: number; tester: number; tester2: number; reviewer: number; site: number; job: number; board: number };
   /** A supertest agent signed in as one of the accounts (cookies kept). */
@@ -22,7 +27,7 @@ export interface TestApp {
  * A fresh in-memory database with one person per role, one site, job and open board of three
  * circuits, and the app over it. Small invented fixture, not the demo data.
  */
-export async function createTestApp(options: { presence?: Presence } = {}): Promise<TestApp> {
+export async function createTestApp(options: { presence?: Presence; smtpUrl?: string; dataDir?: string } = {}): Promise<TestApp> {
   const { db, sqlite } = openDatabase(':memory:');
   await migrateToLatest(db);
   const hash = bcrypt.hashSync(password, 4);
@@ -48,10 +53,20 @@ export async function createTestApp(options: { presence?: Presence } = {}): Prom
   });
   await db.insertInto('circuits').values([circuit(1, '1', 'Sockets', 'ring'), circuit(2, '2', 'Lights', 'radial'), circuit(3, '3', 'Lights upstairs', 'radial')]).execute();
 
-  const app = createApp({ db, sqlite, sessionSecret: 'test-secret', signInAttemptsPerMinute: 1000, presence: options.presence });
+  const dataDir = options.dataDir ?? fs.mkdtempSync(path.join(os.tmpdir(), 'boardwalk-test-'));
+  const app = createApp({
+    db,
+    sqlite,
+    sessionSecret: 'test-secret',
+    signInAttemptsPerMinute: 1000,
+    presence: options.presence,
+    dataDir,
+    smtpUrl: options.smtpUrl,
+  });
   const emails = { admin: 'admin@test.example', tester: 'tester@test.example', tester2: 'tester2@test.example', reviewer: 'reviewer@test.example' };
   return {
     db,
+    dataDir,
     app,
     ids: { admin, tester, tester2, reviewer, site, job, board },
     async signIn(role) {
@@ -60,7 +75,10 @@ export async function createTestApp(options: { presence?: Presence } = {}): Prom
       if (res.status !== 200) throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`);
       return agent;
     },
-    close: () => sqlite.close(),
+    close: () => {
+      sqlite.close();
+      if (!options.dataDir) fs.rmSync(dataDir, { recursive: true, force: true });
+    },
   };
 }
 
