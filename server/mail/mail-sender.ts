@@ -1,6 +1,6 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import type SMTPTransport from 'nodemailer/lib/smtp-transport';
-import { readCompany } from '../db/company.ts';
+import { loadCompany } from '../db/company.ts';
 import type { DB } from '../db/database.ts';
 import type { OutgoingMailRow } from '../db/types.ts';
 import { type FileStore } from '../files.ts';
@@ -124,7 +124,7 @@ export class MailSender {
     if (!issue) throw new Error('The issued document to attach was not found.');
     if (issue.sha256 !== issue.issued_sha256) throw new Error('The stored document does not match the SHA-256 recorded when it was issued; it was not sent.');
     const content = this.files.readVerified(issue);
-    const company = await readCompany(this.db);
+    const company = await loadCompany(this.db);
     const from = this.options.from ?? (company.email || 'boardwalk@localhost');
     const info = await this.transport.sendMail({
       from: company.name ? { name: company.name, address: from } : from,

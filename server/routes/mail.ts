@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { sendJobBodySchema, type OutgoingMail } from '../../shared/schemas/mail.ts';
 import { jobStateLabels } from '../../shared/schemas/sites.ts';
-import { readCompany } from '../db/company.ts';
+import { loadCompany } from '../db/company.ts';
 import type { DB } from '../db/database.ts';
 import type { OutgoingMailRow } from '../db/types.ts';
 import { userNames } from '../db/users.ts';
@@ -133,7 +133,7 @@ export function mailRoutes(db: DB, sender: MailSender): Router {
       .executeTakeFirst();
     if (pending) throw new HttpError('conflict', `Revision ${issue.revision} is already on its way to ${to}.`);
 
-    const company = await readCompany(db);
+    const company = await loadCompany(db);
     const user = currentUser(req);
     const id = await db.transaction().execute(async (trx) => {
       const row = await trx

@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { maxLogoBytes } from '../../shared/schemas/company-api.ts';
+import { maxLogoBytes } from '../../shared/schemas/company-logo.ts';
 import { defaultCompany } from '../../shared/schemas/company.ts';
 import { pngBytes } from '../helpers/images.ts';
 import { createTestApp, type TestApp } from '../helpers/test-app.ts';

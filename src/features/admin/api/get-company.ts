@@ -1,6 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { companyResponseSchema } from '../../../../shared/schemas/company-api.ts';
-import type { Company } from '../../../../shared/schemas/company.ts';
+import { companyResponseSchema, type Company } from '../../../../shared/schemas/company.ts';
 import { apiGet } from '../../../lib/api-client.ts';
 import { companyKeys } from './company-keys.ts';
 

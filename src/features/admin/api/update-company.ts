@@ -1,6 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { companyResponseSchema } from '../../../../shared/schemas/company-api.ts';
-import type { Company, CompanyFields } from '../../../../shared/schemas/company.ts';
+import { companyResponseSchema, type Company, type CompanyFields } from '../../../../shared/schemas/company.ts';
 import { apiRequest } from '../../../lib/api-client.ts';
 import { companyKeys } from './company-keys.ts';
 

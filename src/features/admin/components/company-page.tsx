@@ -1,5 +1,5 @@
 import { useId, useRef, useState, type FormEvent, type ReactNode } from 'react';
-import { maxLogoBytes } from '../../../../shared/schemas/company-api.ts';
+import { maxLogoBytes } from '../../../../shared/schemas/company-logo.ts';
 import type { Company, CompanyFields } from '../../../../shared/schemas/company.ts';
 import { useRemoveLogo, useUploadLogo } from '../api/company-logo.ts';
 import { useCompany } from '../api/get-company.ts';
