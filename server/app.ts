@@ -14,6 +14,8 @@ import { Presence } from './presence.ts';
 import { authRoutes } from './routes/auth.ts';
 import { boardRoutes } from './routes/boards.ts';
 import { checkRoutes } from './routes/check.ts';
+import { exportRoutes } from './routes/exports.ts';
+import { issueRoutes } from './routes/issues.ts';
 import { siteRoutes } from './routes/sites.ts';
 import { userRoutes } from './routes/users.ts';
 
@@ -36,6 +38,8 @@ export interface AppOptions {
   signInAttemptsPerMinute?: number;
   /** Presence window; tests shorten it. */
   presence?: Presence;
+  /** Folder for stored files (issued PDFs, uploads); `data/` under the working folder by default. */
+  dataDir?: string;
 }
 
 /** Builds the Express app. It never listens: server/index.ts does, and tests use port 0. */
@@ -77,6 +81,8 @@ export function createApp(options: AppOptions): Express {
   api.use('/check', checkRoutes());
   api.use('/boards', boardRoutes(db, presence));
   api.use('/', siteRoutes(db));
+  api.use('/', issueRoutes(db, { dataDir: options.dataDir ?? path.resolve('data') }));
+  api.use('/', exportRoutes(db));
   api.use(apiNotFound);
   app.use('/api', api);
 

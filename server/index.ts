@@ -37,6 +37,7 @@ const app = createApp({
   sqlite,
   sessionSecret: process.env.SESSION_SECRET ?? (await sessionSecretFrom(db)),
   clientDir: serveClient ? clientDir : undefined,
+  dataDir: process.env.DATA_DIR ?? path.join(root, 'data'),
 });
 
 const server = app.listen(port, () => {

@@ -829,7 +829,7 @@ function columnGroupLabel(def: ColumnDef): string {
     device: 'Protective device',
     continuity: 'Continuity',
     insulation: 'Insulation resistance',
-    loop: 'Loop impedance',
+    loop: 'Loop',
     rcd: 'RCD / AFDD',
     remarks: '',
   };

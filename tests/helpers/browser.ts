@@ -49,7 +49,7 @@ export async function startDemoServer(): Promise<DemoServer> {
   const { db, sqlite } = openDatabase(path.join(dir, 'test.sqlite'));
   await migrateToLatest(db);
   await seedDemo(db);
-  const app = createApp({ db, sqlite, sessionSecret: await sessionSecretFrom(db), clientDir, signInAttemptsPerMinute: 1000 });
+  const app = createApp({ db, sqlite, sessionSecret: await sessionSecretFrom(db), clientDir, signInAttemptsPerMinute: 1000, dataDir: path.join(dir, 'data') });
   const { server, url } = await listen(app);
   return {
     url,
