@@ -17,7 +17,9 @@ import { authRoutes } from './routes/auth.ts';
 import { boardRoutes } from './routes/boards.ts';
 import { checkRoutes } from './routes/check.ts';
 import { companyRoutes } from './routes/company.ts';
+import { exportRoutes } from './routes/exports.ts';
 import { fileRoutes } from './routes/files.ts';
+import { issueRoutes } from './routes/issues.ts';
 import { jobRoutes } from './routes/jobs.ts';
 import { mailboxRoutes, mailRoutes } from './routes/mail.ts';
 import { signatureRoutes } from './routes/signatures.ts';
@@ -112,6 +114,8 @@ export function createApp(options: AppOptions): Express {
   api.use('/', signatureRoutes(db, files));
   api.use('/', mailRoutes(db, mailSender));
   api.use('/admin/mailbox', mailboxRoutes(path.join(dataDir, 'mailbox'), options.localMailPort ?? null));
+  api.use('/', issueRoutes(db, { dataDir }));
+  api.use('/', exportRoutes(db));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -14,10 +14,10 @@ export const password = 'correct horse battery';
 
 export interface TestApp {
   db: DB;
-  /** A fresh temporary data folder (stored files, mailbox), removed by `close()`. */
-  dataDir: string;
   app: ReturnType<typeof createApp>;
   ids: { admin: number; tester: number; tester2: number; reviewer: number; site: number; job: number; board: number };
+  /** The app's data folder (stored files, the mailbox): a fresh temporary folder, removed by `close()`. */
+  dataDir: string;
   /** A supertest agent signed in as one of the accounts (cookies kept). */
   signIn(role: 'admin' | 'tester' | 'tester2' | 'reviewer'): Promise<ReturnType<typeof request.agent>>;
   close(): void;
@@ -66,9 +66,9 @@ export async function createTestApp(options: { presence?: Presence; smtpUrl?: st
   const emails = { admin: 'admin@test.example', tester: 'tester@test.example', tester2: 'tester2@test.example', reviewer: 'reviewer@test.example' };
   return {
     db,
-    dataDir,
     app,
     ids: { admin, tester, tester2, reviewer, site, job, board },
+    dataDir,
     async signIn(role) {
       const agent = request.agent(app);
       const res = await agent.post('/api/auth/sign-in').send({ email: emails[role], password });
