@@ -58,8 +58,8 @@ export function CompanyPage() {
             </button>
           </div>
         )}
-        {/* Keyed by what was loaded, so the form starts again from the saved details after a save elsewhere. */}
-        {company.isSuccess && <CompanyForm key={JSON.stringify({ ...company.data, logoFileId: null })} company={company.data} />}
+        {/* Mounted once the details are loaded: its fields start from them and then hold what is typed. */}
+        {company.isSuccess && <CompanyForm company={company.data} />}
       </div>
       {company.isSuccess && <LogoPanel company={company.data} />}
     </div>
