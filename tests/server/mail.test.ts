@@ -121,13 +121,26 @@ describe('sending an issued job to the client', () => {
     ]);
   });
 
-  it('when an address is given, then it goes there instead of the site contact', async () => {
+  it("when an address is given, then it goes there instead of the site contact, from and signed by the company", async () => {
     await issueJob();
     const admin = await t.signIn('admin');
+    await admin.put('/api/company').send({
+      name: 'Kestrel Lane Electrical Ltd',
+      address: '4 Kestrel Lane, Harwick',
+      phone: '01632 960 418',
+      email: 'office@kestrel-lane.example',
+      registration: '',
+      referencePattern: 'KL-{yyyy}-{seq:4}',
+    });
     const res = await admin.post(`/api/jobs/${t.ids.job}/send`).send({ to: 'agent@letting.example' });
     expect(res.status).toBe(202);
+    // Not the site contact, so not greeted by the contact's name.
+    expect(res.body.mail.body).toMatch(/^Hello,\n/);
+    expect(res.body.mail.body).toMatch(/\n\nKestrel Lane Electrical Ltd\n01632 960 418 · office@kestrel-lane.example\n$/);
     await waitForMail(admin, (mail) => mail[0]?.state === 'sent');
-    expect(listMailbox(path.join(dir, 'mailbox'))[0]!.envelopeTo).toEqual(['agent@letting.example']);
+    const received = listMailbox(path.join(dir, 'mailbox'))[0]!;
+    expect(received.envelopeTo).toEqual(['agent@letting.example']);
+    expect(received.from).toBe('Kestrel Lane Electrical Ltd <office@kestrel-lane.example>');
   });
 
   it('when the job is not issued, then 409 in words and nothing is queued', async () => {
