@@ -1,4 +1,5 @@
 import { sql, type Kysely } from 'kysely';
+import { idKey, realType, nowText, appendOnly } from './lib/dialect.ts';
 
 /**
  * The first schema: people, sites, jobs, boards, circuits, one row per reading cell, and an
@@ -7,29 +8,29 @@ import { sql, type Kysely } from 'kysely';
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema
     .createTable('users')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('email', 'text', (c) => c.notNull().unique())
     .addColumn('name', 'text', (c) => c.notNull())
     .addColumn('role', 'text', (c) => c.notNull().check(sql`role in ('admin', 'tester', 'reviewer')`))
     .addColumn('password_hash', 'text', (c) => c.notNull())
-    .addColumn('created_at', 'text', (c) => c.notNull().defaultTo(sql`(strftime('%Y-%m-%dT%H:%M:%fZ', 'now'))`))
+    .addColumn('created_at', 'text', (c) => c.notNull().defaultTo(nowText(db)))
     .execute();
 
   await db.schema
     .createTable('sites')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('client', 'text', (c) => c.notNull())
     .addColumn('address', 'text', (c) => c.notNull())
     .addColumn('description', 'text', (c) => c.notNull().defaultTo(''))
     .addColumn('earthing', 'text', (c) => c.notNull().check(sql`earthing in ('TN-S', 'TN-C-S', 'TT')`))
-    .addColumn('nominal_voltage_v', 'real', (c) => c.notNull().defaultTo(230))
-    .addColumn('ze_ohm', 'real')
-    .addColumn('pfc_ka', 'real')
+    .addColumn('nominal_voltage_v', realType(db), (c) => c.notNull().defaultTo(230))
+    .addColumn('ze_ohm', realType(db))
+    .addColumn('pfc_ka', realType(db))
     .execute();
 
   await db.schema
     .createTable('jobs')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('site_id', 'integer', (c) => c.notNull().references('sites.id').onDelete('cascade'))
     .addColumn('kind', 'text', (c) => c.notNull().check(sql`kind in ('EIC', 'EICR')`))
     .addColumn('reference', 'text', (c) => c.notNull())
@@ -40,14 +41,14 @@ export async function up(db: Kysely<any>): Promise<void> {
 
   await db.schema
     .createTable('boards')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('job_id', 'integer', (c) => c.notNull().references('jobs.id').onDelete('cascade'))
     .addColumn('reference', 'text', (c) => c.notNull())
     .addColumn('location', 'text', (c) => c.notNull().defaultTo(''))
     .addColumn('supplied_from', 'text', (c) => c.notNull().defaultTo(''))
     .addColumn('phases', 'integer', (c) => c.notNull().check(sql`phases in (1, 3)`))
-    .addColumn('zdb_ohm', 'real')
-    .addColumn('ipf_ka', 'real')
+    .addColumn('zdb_ohm', realType(db))
+    .addColumn('ipf_ka', realType(db))
     .addColumn('polarity_confirmed', 'integer', (c) => c.notNull().defaultTo(0))
     .addColumn('phase_sequence_confirmed', 'integer', (c) => c.notNull().defaultTo(0))
     .addColumn('instruments', 'text', (c) => c.notNull().defaultTo(''))
@@ -60,7 +61,7 @@ export async function up(db: Kysely<any>): Promise<void> {
 
   await db.schema
     .createTable('circuits')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('board_id', 'integer', (c) => c.notNull().references('boards.id').onDelete('cascade'))
     .addColumn('position', 'integer', (c) => c.notNull())
     .addColumn('number', 'text', (c) => c.notNull())
@@ -72,20 +73,20 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn('wiring_type', 'text', (c) => c.notNull().defaultTo(''))
     .addColumn('reference_method', 'text', (c) => c.notNull().defaultTo(''))
     .addColumn('points', 'integer')
-    .addColumn('live_csa_mm2', 'real')
-    .addColumn('cpc_csa_mm2', 'real')
-    .addColumn('max_disconnection_s', 'real')
+    .addColumn('live_csa_mm2', realType(db))
+    .addColumn('cpc_csa_mm2', realType(db))
+    .addColumn('max_disconnection_s', realType(db))
     .addColumn('device_standard', 'text', (c) => c.notNull().defaultTo(''))
     .addColumn('device_type', 'text', (c) => c.notNull().defaultTo(''))
-    .addColumn('rating_a', 'real')
-    .addColumn('breaking_ka', 'real')
+    .addColumn('rating_a', realType(db))
+    .addColumn('breaking_ka', realType(db))
     .addColumn('rcd_type', 'text')
-    .addColumn('rcd_rated_residual_ma', 'real')
+    .addColumn('rcd_rated_residual_ma', realType(db))
     .addColumn('afdd', 'text', (c) => c.check(sql`afdd in ('yes', 'no')`))
     .addColumn('remarks', 'text', (c) => c.notNull().defaultTo(''))
     .addColumn('spur_ring_id', 'integer', (c) => c.references('circuits.id').onDelete('set null'))
     .addColumn('spur_origin_point', 'text')
-    .addColumn('spur_length_m', 'real')
+    .addColumn('spur_length_m', realType(db))
     .addColumn('version', 'integer', (c) => c.notNull().defaultTo(1))
     .execute();
   await db.schema.createIndex('circuits_board_position').on('circuits').columns(['board_id', 'position']).execute();
@@ -105,7 +106,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   // Append-only: rows are inserted, never updated or deleted (the triggers refuse it).
   await db.schema
     .createTable('history')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('board_id', 'integer', (c) => c.notNull())
     .addColumn('circuit_id', 'integer')
     .addColumn('column_key', 'text')
@@ -120,10 +121,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn('version', 'integer')
     .execute();
   await db.schema.createIndex('history_board_id').on('history').columns(['board_id', 'id']).execute();
-  await sql`create trigger history_no_update before update on history
-    begin select raise(abort, 'history is append-only'); end`.execute(db);
-  await sql`create trigger history_no_delete before delete on history
-    begin select raise(abort, 'history is append-only'); end`.execute(db);
+  await appendOnly(db, 'history', 'history is append-only');
 
   await db.schema
     .createTable('app_settings')

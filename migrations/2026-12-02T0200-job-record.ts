@@ -1,4 +1,5 @@
 import { sql, type Kysely } from 'kysely';
+import { idKey, nowText, appendOnly } from './lib/dialect.ts';
 
 /**
  * The certificate or report around the schedules: contact details on the site, the job's own
@@ -23,7 +24,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.alterTable('jobs').addColumn('started_from_job_id', 'integer').execute();
   await db.schema
     .alterTable('jobs')
-    .addColumn('created_at', 'text', (c) => c.notNull().defaultTo(sql`(strftime('%Y-%m-%dT%H:%M:%fZ', 'now'))`))
+    .addColumn('created_at', 'text', (c) => c.notNull().defaultTo(nowText(db)))
     .execute();
 
   // The same circuit on the earlier job's board, when this board was started from it.
@@ -45,7 +46,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   // Append-only, like `history` for boards: every change of a job's record, details or state.
   await db.schema
     .createTable('job_history')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('job_id', 'integer', (c) => c.notNull())
     // `section` and `field` name what changed (null for the job's own details or state).
     .addColumn('section', 'text')
@@ -62,10 +63,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn('version', 'integer')
     .execute();
   await db.schema.createIndex('job_history_job_id').on('job_history').columns(['job_id', 'id']).execute();
-  await sql`create trigger job_history_no_update before update on job_history
-    begin select raise(abort, 'job history is append-only'); end`.execute(db);
-  await sql`create trigger job_history_no_delete before delete on job_history
-    begin select raise(abort, 'job history is append-only'); end`.execute(db);
+  await appendOnly(db, 'job_history', 'job history is append-only');
 }
 
 export async function down(db: Kysely<any>): Promise<void> {

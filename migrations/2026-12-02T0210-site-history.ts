@@ -1,4 +1,5 @@
-import { sql, type Kysely } from 'kysely';
+import type { Kysely } from 'kysely';
+import { idKey, appendOnly } from './lib/dialect.ts';
 
 /**
  * Append-only history of a site's details (client, address, contact, earthing…), like `history`
@@ -9,7 +10,7 @@ import { sql, type Kysely } from 'kysely';
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema
     .createTable('site_history')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('site_id', 'integer', (c) => c.notNull())
     // The field that changed (camelCase, as over HTTP); null for `created`.
     .addColumn('field', 'text')
@@ -22,10 +23,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn('version', 'integer')
     .execute();
   await db.schema.createIndex('site_history_site_id').on('site_history').columns(['site_id', 'id']).execute();
-  await sql`create trigger site_history_no_update before update on site_history
-    begin select raise(abort, 'site history is append-only'); end`.execute(db);
-  await sql`create trigger site_history_no_delete before delete on site_history
-    begin select raise(abort, 'site history is append-only'); end`.execute(db);
+  await appendOnly(db, 'site_history', 'site history is append-only');
 }
 
 export async function down(db: Kysely<any>): Promise<void> {

@@ -1,11 +1,12 @@
 import type { Kysely } from 'kysely';
+import { realType } from './lib/dialect.ts';
 
 /**
  * The length of a circuit's cable (m), when the tester knows it: a radial's R1+R2 is checked against
  * length × R1+R2 per metre. Empty for circuits recorded without it.
  */
 export async function up(db: Kysely<any>): Promise<void> {
-  await db.schema.alterTable('circuits').addColumn('cable_length_m', 'real').execute();
+  await db.schema.alterTable('circuits').addColumn('cable_length_m', realType(db)).execute();
 }
 
 export async function down(db: Kysely<any>): Promise<void> {

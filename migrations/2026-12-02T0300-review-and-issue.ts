@@ -1,6 +1,5 @@
 import { sql, type Kysely } from 'kysely';
-
-const now = sql`(strftime('%Y-%m-%dT%H:%M:%fZ', 'now'))`;
+import { idKey, nowText } from './lib/dialect.ts';
 
 /**
  * Review and issue: files people upload (kept on disk under data/, one row each), findings a
@@ -8,10 +7,11 @@ const now = sql`(strftime('%Y-%m-%dT%H:%M:%fZ', 'now'))`;
  * revision) and the e-mails that carry them. Frozen: later changes get migrations of their own.
  */
 export async function up(db: Kysely<any>): Promise<void> {
+  const now = nowText(db);
   // Every uploaded or produced file: the bytes live on disk at `path` (relative to the data folder).
   await db.schema
     .createTable('files')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     // e.g. `signature`, `logo`, `photo`, `issued-pdf`.
     .addColumn('kind', 'text', (c) => c.notNull())
     .addColumn('path', 'text', (c) => c.notNull().unique())
@@ -29,7 +29,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   // board, circuit, code and columns (see shared/schemas/review.ts, `findingKey`).
   await db.schema
     .createTable('finding_acceptances')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('job_id', 'integer', (c) => c.notNull().references('jobs.id').onDelete('cascade'))
     .addColumn('board_id', 'integer', (c) => c.references('boards.id').onDelete('cascade'))
     .addColumn('finding_key', 'text', (c) => c.notNull())
@@ -49,7 +49,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   // Who signed what: a typed name and an image (drawn in the browser or uploaded).
   await db.schema
     .createTable('signatures')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('job_id', 'integer', (c) => c.notNull().references('jobs.id').onDelete('cascade'))
     // `designer`, `constructor`, `inspector` or `reviewer` (the declaration's people).
     .addColumn('role', 'text', (c) => c.notNull())
@@ -63,7 +63,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   // Issued documents: one row per revision, never changed once written except to mark it superseded.
   await db.schema
     .createTable('job_issues')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('job_id', 'integer', (c) => c.notNull().references('jobs.id'))
     .addColumn('revision', 'integer', (c) => c.notNull())
     .addColumn('file_id', 'integer', (c) => c.notNull().references('files.id'))
@@ -77,7 +77,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   // E-mails sent (or waiting to be sent) to clients.
   await db.schema
     .createTable('outgoing_mail')
-    .addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+    .addColumn('id', 'integer', idKey(db))
     .addColumn('job_id', 'integer', (c) => c.notNull().references('jobs.id'))
     .addColumn('issue_id', 'integer', (c) => c.references('job_issues.id'))
     .addColumn('to_address', 'text', (c) => c.notNull())

@@ -5,14 +5,17 @@ import type SQLite from 'better-sqlite3';
 import express, { type Express } from 'express';
 import session from 'express-session';
 import makeSqliteStore from 'better-sqlite3-session-store';
+import makePgStore from 'connect-pg-simple';
 import helmet from 'helmet';
+import type pg from 'pg';
 import type { DB } from './db/database.ts';
 import { findUserById } from './db/users.ts';
 import { apiNotFound, errorHandler } from './middleware/error-handler.ts';
 import { requireUser, type UserLoader } from './middleware/auth.ts';
 import { FileStore } from './files.ts';
 import { MailSender } from './mail/mail-sender.ts';
-import { Presence } from './presence.ts';
+import { Presence, type PresenceTracker } from './presence.ts';
+import { SharedPresence } from './shared-presence.ts';
 import { authRoutes } from './routes/auth.ts';
 import { boardRoutes } from './routes/boards.ts';
 import { checkRoutes } from './routes/check.ts';
@@ -27,6 +30,7 @@ import { siteRoutes } from './routes/sites.ts';
 import { userRoutes } from './routes/users.ts';
 
 const SqliteStore = makeSqliteStore(session);
+const PgStore = makePgStore(session);
 
 /** The session store's expiry sweep should not keep a process (a script, a test) alive. */
 class QuietSqliteStore extends SqliteStore {
@@ -38,13 +42,18 @@ class QuietSqliteStore extends SqliteStore {
 export interface AppOptions {
   db: DB;
   /** The same SQLite handle: sessions are kept in the same file. */
-  sqlite: SQLite.Database;
+  sqlite?: SQLite.Database;
+  /**
+   * On PostgreSQL (DATABASE_URL) instead of `sqlite`: the pool `db` runs on. Sessions and presence
+   * are then kept in the database, so several instances can share it.
+   */
+  postgres?: pg.Pool;
   sessionSecret: string;
   /** Built client (vite build output) to serve; omitted in API-only tests. */
   clientDir?: string;
   signInAttemptsPerMinute?: number;
   /** Presence window; tests shorten it. */
-  presence?: Presence;
+  presence?: PresenceTracker;
   /** Folder for stored files (`files/…`) and the local mailbox (`mailbox/`); default `data/`. */
   dataDir?: string;
   /**
@@ -82,7 +91,7 @@ export function createApp(options: AppOptions): Express {
     session({
       name: 'boardwalk.sid',
       secret: options.sessionSecret,
-      store: new QuietSqliteStore({ client: options.sqlite }),
+      store: sessionStore(options),
       resave: false,
       saveUninitialized: false,
       rolling: true,
@@ -94,7 +103,7 @@ export function createApp(options: AppOptions): Express {
     const row = await findUserById(db, id);
     return row && { id: row.id, email: row.email, name: row.name, role: row.role };
   };
-  const presence = options.presence ?? new Presence();
+  const presence = options.presence ?? (options.postgres ? new SharedPresence(db) : new Presence());
   const dataDir = path.resolve(options.dataDir ?? 'data');
   const files = new FileStore(dataDir);
   const mailSender = new MailSender(db, files, { smtpUrl: options.smtpUrl, from: options.mailFrom });
@@ -131,6 +140,13 @@ export function createApp(options: AppOptions): Express {
   return app;
 }
 
+/** Sessions live in the app's own database: the SQLite file, or PostgreSQL's `sessions` table. */
+function sessionStore(options: AppOptions): session.Store {
+  if (options.postgres) return new PgStore({ pool: options.postgres, tableName: 'sessions', createTableIfMissing: false });
+  if (options.sqlite) return new QuietSqliteStore({ client: options.sqlite });
+  throw new Error('createApp needs the database handle for sessions: sqlite or postgres.');
+}
+
 /** The services createApp made (file store, mail sender). */
 export function appServices(app: Express): AppServices {
   return app.locals.services as AppServices;
@@ -141,6 +157,7 @@ export async function sessionSecretFrom(db: DB): Promise<string> {
   const row = await db.selectFrom('app_settings').select('value').where('key', '=', 'session_secret').executeTakeFirst();
   if (row) return row.value;
   const value = crypto.randomBytes(32).toString('hex');
-  await db.insertInto('app_settings').values({ key: 'session_secret', value }).execute();
-  return value;
+  // Two instances starting at once on one database: the first secret written wins for both.
+  await db.insertInto('app_settings').values({ key: 'session_secret', value }).onConflict((oc) => oc.column('key').doNothing()).execute();
+  return (await db.selectFrom('app_settings').select('value').where('key', '=', 'session_secret').executeTakeFirstOrThrow()).value;
 }

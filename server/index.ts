@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { appServices, createApp, sessionSecretFrom } from './app.ts';
-import { openDatabase } from './db/database.ts';
+import { openDatabase, openPostgres, isPostgresUrl } from './db/database.ts';
 import { migrateToLatest } from './db/migrate.ts';
 import { demoAccounts, demoPassword } from './db/seed/demo-scenario.ts';
 import { databaseHasUsers, seedDemo } from './db/seed/seed-demo.ts';
@@ -14,7 +14,13 @@ const port = Number(process.env.PORT ?? 3000);
 const databasePath = process.env.DATABASE_PATH ?? path.join(root, 'data', 'boardwalk.sqlite');
 const dataDir = path.resolve(process.env.DATA_DIR ?? path.join(root, 'data'));
 
-const { db, sqlite } = openDatabase(databasePath);
+// DATABASE_URL=postgres://… runs on PostgreSQL (several instances may share it); unset, the SQLite file.
+const databaseUrl = process.env.DATABASE_URL;
+if (databaseUrl && !isPostgresUrl(databaseUrl)) throw new Error('DATABASE_URL must be a postgres:// or postgresql:// URL (leave it unset for the SQLite file).');
+const { db, sqlite, pool } = isPostgresUrl(databaseUrl)
+  ? { ...openPostgres(databaseUrl), sqlite: undefined }
+  : { ...openDatabase(databasePath), pool: undefined };
+const databaseName = databaseUrl ? databaseUrl.replace(/\/\/[^@/]*@/, '//') : databasePath;
 const applied = await migrateToLatest(db);
 if (applied.length > 0) console.log(`Applied migrations: ${applied.join(', ')}`);
 
@@ -52,6 +58,7 @@ if (!process.env.SMTP_URL) {
 const app = createApp({
   db,
   sqlite,
+  postgres: pool,
   sessionSecret: process.env.SESSION_SECRET ?? (await sessionSecretFrom(db)),
   clientDir: serveClient ? clientDir : undefined,
   dataDir,
@@ -63,14 +70,15 @@ const app = createApp({
 await appServices(app).mailSender.resume();
 
 const server = app.listen(port, () => {
-  console.log(`Boardwalk is running at http://localhost:${port} (database: ${databasePath})`);
+  console.log(`Boardwalk is running at http://localhost:${port} (database: ${databaseName})`);
 });
 
 function shutdown() {
   server.close(async () => {
     await localMail?.close();
     await appServices(app).mailSender.idle();
-    sqlite.close();
+    sqlite?.close();
+    await pool?.end();
     process.exit(0);
   });
 }

@@ -1,5 +1,15 @@
+/**
+ * Who has a board open, as the board routes see it. `Presence` keeps it in this process's memory
+ * (one instance, SQLite); `SharedPresence` (shared-presence.ts) keeps it in PostgreSQL so several
+ * instances see each other's people.
+ */
+export interface PresenceTracker {
+  touch(boardId: number, user: { id: number; name: string }): void | Promise<void>;
+  others(boardId: number, exceptUserId: number): { id: number; name: string }[] | Promise<{ id: number; name: string }[]>;
+}
+
 /** Who has a board open: refreshed by every board fetch and every poll of its changes feed. */
-export class Presence {
+export class Presence implements PresenceTracker {
   private readonly seen = new Map<number, Map<number, { name: string; at: number }>>();
 
   constructor(

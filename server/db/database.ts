@@ -1,7 +1,18 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import SQLite from 'better-sqlite3';
-import { Kysely, SqliteDialect } from 'kysely';
+import {
+  CompiledQuery,
+  Kysely,
+  PostgresDialect,
+  PostgresDriver,
+  SqliteDialect,
+  type DatabaseConnection,
+  type Driver,
+  type PostgresDialectConfig,
+  type TransactionSettings,
+} from 'kysely';
+import pg from 'pg';
 import type { Database } from './types.ts';
 
 export type DB = Kysely<Database>;
@@ -23,4 +34,64 @@ export function openDatabase(file: string): OpenedDatabase {
   sqlite.pragma('busy_timeout = 5000');
   const db = new Kysely<Database>({ dialect: new SqliteDialect({ database: sqlite }) });
   return { db, sqlite };
+}
+
+/** True when DATABASE_URL names a PostgreSQL server (`postgres://…` or `postgresql://…`). */
+export function isPostgresUrl(url: string | undefined): url is string {
+  return !!url && /^postgres(ql)?:\/\//i.test(url);
+}
+
+export interface OpenedPostgres {
+  db: DB;
+  /** The pool, shared with the session store so sessions live in the same database. */
+  pool: pg.Pool;
+}
+
+// Counts (`count(*)`) come back as int8 and averages as numeric, which pg hands over as strings to
+// keep their full precision; Boardwalk's counts and sums stay far below 2^53, so read them as
+// numbers, as better-sqlite3 does.
+pg.types.setTypeParser(pg.types.builtins.INT8, (text) => Number(text));
+pg.types.setTypeParser(pg.types.builtins.NUMERIC, (text) => Number(text));
+
+/**
+ * Write transactions take one lock per database schema at their start, so they run one at a time,
+ * as on SQLite (one writer at a time; Kysely's SQLite driver runs everything on one connection):
+ * - the routes read a version and then write inside a transaction (the 409 on a stale edit); at
+ *   PostgreSQL's default isolation two such transactions could both pass the check;
+ * - the live feed's cursor is the last history id seen: ids come from a sequence before commit, so
+ *   without the lock a later id could commit first and a poller would step over the earlier one.
+ * Reads outside transactions are not held up. The lock is transaction-scoped (released at commit or
+ * rollback) and shared by every instance on the same database: that is what makes several
+ * instances behave like one.
+ */
+class OneWriterAtATimeDriver extends PostgresDriver {
+  override async beginTransaction(connection: DatabaseConnection, settings: TransactionSettings): Promise<void> {
+    await super.beginTransaction(connection, settings);
+    await connection.executeQuery(CompiledQuery.raw(`select pg_advisory_xact_lock(hashtext('boardwalk writes ' || current_schema()))`));
+  }
+}
+
+class BoardwalkPostgresDialect extends PostgresDialect {
+  constructor(private readonly pgConfig: PostgresDialectConfig) {
+    super(pgConfig);
+  }
+  override createDriver(): Driver {
+    return new OneWriterAtATimeDriver(this.pgConfig);
+  }
+}
+
+/**
+ * Opens a PostgreSQL database (DATABASE_URL). `schema`, when given, is put first on the search path
+ * of every connection (tests make a fresh schema per app).
+ */
+export function openPostgres(url: string, options: { schema?: string; max?: number } = {}): OpenedPostgres {
+  const pool = new pg.Pool({
+    connectionString: url,
+    max: options.max ?? 10,
+    ...(options.schema ? { options: `-c search_path=${options.schema}` } : {}),
+  });
+  // An idle client losing its connection (the server restarted) must not end the process.
+  pool.on('error', (error) => console.error('PostgreSQL pool:', error.message));
+  const db = new Kysely<Database>({ dialect: new BoardwalkPostgresDialect({ pool }) });
+  return { db, pool };
 }

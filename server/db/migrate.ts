@@ -1,7 +1,7 @@
 import fs from 'node:fs/promises';
 import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
-import { Migrator, type Migration, type MigrationProvider } from 'kysely';
+import { Migrator, PostgresAdapter, sql, type Migration, type MigrationProvider } from 'kysely';
 import type { DB } from './database.ts';
 
 const migrationsDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../migrations');
@@ -26,7 +26,11 @@ class MigrationFolderProvider implements MigrationProvider {
 export async function migrateToLatest(db: DB): Promise<string[]> {
   // Helpers land migrations with timestamps reserved in advance, so one may arrive after a later-named
   // one has already run on an existing database: run it anyway (each is an independent change).
-  const migrator = new Migrator({ db, provider: new MigrationFolderProvider(), allowUnorderedMigrations: true });
+  // On PostgreSQL the migrator's own tables go in the schema the app works in: left unnamed, it looks
+  // for them in every schema of the database and finds another app's (tests use a schema each).
+  const migrationTableSchema =
+    db.getExecutor().adapter instanceof PostgresAdapter ? (await sql<{ schema: string }>`select current_schema() as schema`.execute(db)).rows[0]?.schema : undefined;
+  const migrator = new Migrator({ db, provider: new MigrationFolderProvider(), allowUnorderedMigrations: true, migrationTableSchema });
   const { error, results } = await migrator.migrateToLatest();
   const failed = results?.find((r) => r.status === 'Error');
   if (error) {

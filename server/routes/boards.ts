@@ -19,7 +19,7 @@ import { userNames } from '../db/users.ts';
 import { findingsFor } from '../findings.ts';
 import { HttpError, notFound } from '../http-error.ts';
 import { currentUser, requireRole } from '../middleware/auth.ts';
-import type { Presence } from '../presence.ts';
+import type { PresenceTracker } from '../presence.ts';
 import { idParam } from './params.ts';
 
 async function requireBoard(db: DB, boardId: number): Promise<BoardRow> {
@@ -35,7 +35,7 @@ function requireOpen(board: BoardRow): void {
   }
 }
 
-export function boardRoutes(db: DB, presence: Presence): Router {
+export function boardRoutes(db: DB, presence: PresenceTracker): Router {
   const router = Router();
 
   /** Findings of the whole board (rules compare circuits with each other), filtered to some circuits. */
@@ -51,7 +51,7 @@ export function boardRoutes(db: DB, presence: Presence): Router {
     const cursor = await latestCursor(db, boardId);
     const context = await loadBoardWithContext(db, boardId);
     if (!context) throw notFound(`Board ${boardId}`);
-    presence.touch(boardId, currentUser(req));
+    await presence.touch(boardId, currentUser(req));
     res.json({ ...context, findings: findingsFor(context), cursor });
   });
 
@@ -61,7 +61,7 @@ export function boardRoutes(db: DB, presence: Presence): Router {
     const after = Number(req.query.after ?? 0);
     if (!Number.isSafeInteger(after) || after < 0) throw new HttpError('bad_request', 'after must be a cursor from an earlier answer (a whole number).');
     const user = currentUser(req);
-    presence.touch(boardId, user);
+    await presence.touch(boardId, user);
     const changes = await historySince(db, boardId, after);
     const context = await loadBoardWithContext(db, boardId);
     if (!context) throw notFound(`Board ${boardId}`);
@@ -72,7 +72,7 @@ export function boardRoutes(db: DB, presence: Presence): Router {
       circuits: context.circuits.filter((c) => changedIds.has(c.id)),
       order: context.circuits.map((c) => c.id),
       findings: changes.length > 0 ? findingsFor(context) : [],
-      present: presence.others(boardId, user.id),
+      present: await presence.others(boardId, user.id),
     });
   });
 

@@ -1,13 +1,16 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { openDatabase } from '../db/database.ts';
+import { isPostgresUrl, openDatabase, openPostgres } from '../db/database.ts';
 import { migrateToLatest } from '../db/migrate.ts';
 import { databaseHasUsers, seedDemo } from '../db/seed/seed-demo.ts';
 
 /** `npm run seed`: migrates and seeds the demo data into an empty database. */
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const databasePath = process.env.DATABASE_PATH ?? path.join(root, 'data', 'boardwalk.sqlite');
-const { db, sqlite } = openDatabase(databasePath);
+const databaseUrl = process.env.DATABASE_URL;
+const { db, sqlite, pool } = isPostgresUrl(databaseUrl)
+  ? { ...openPostgres(databaseUrl), sqlite: undefined }
+  : { ...openDatabase(databasePath), pool: undefined };
 await migrateToLatest(db);
 if (await databaseHasUsers(db)) {
   console.log(`${databasePath} already has people in it; the demo data goes only into an empty database.`);
@@ -15,4 +18,5 @@ if (await databaseHasUsers(db)) {
   await seedDemo(db);
   console.log(`Seeded the demo data into ${databasePath}.`);
 }
-sqlite.close();
+sqlite?.close();
+await pool?.end();

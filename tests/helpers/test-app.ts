@@ -1,14 +1,16 @@
+import crypto from 'node:crypto';
 import fs from 'node:fs';
 import type { Server } from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import bcrypt from 'bcryptjs';
+import pg from 'pg';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
-import { openDatabase, type DB } from '../../server/db/database.ts';
+import { openDatabase, openPostgres, type DB } from '../../server/db/database.ts';
 import { migrateToLatest } from '../../server/db/migrate.ts';
-import { Presence } from '../../server/presence.ts';
+import type { PresenceTracker } from '../../server/presence.ts';
 
 export const password = 'correct horse battery';
 
@@ -20,15 +22,60 @@ export interface TestApp {
   dataDir: string;
   /** A supertest agent signed in as one of the accounts (cookies kept). */
   signIn(role: 'admin' | 'tester' | 'tester2' | 'reviewer'): Promise<ReturnType<typeof request.agent>>;
-  close(): void;
+  /** On PostgreSQL (BOARDWALK_TEST_DATABASE_URL): the server and this app's own schema. */
+  postgres?: { url: string; schema: string };
+  close(): Promise<void>;
+}
+
+/**
+ * Set (by .ci/run, or by hand) to a PostgreSQL server's URL, the server tests run there instead of
+ * in-memory SQLite: each test app gets a fresh schema of its own, dropped by `close()`.
+ */
+export const testPostgresUrl = process.env.BOARDWALK_TEST_DATABASE_URL || undefined;
+
+let schemaCount = 0;
+
+/** Runs one statement on the test server outside any app (creating and dropping schemas). */
+async function onTestServer(statement: string): Promise<void> {
+  const client = new pg.Client({ connectionString: testPostgresUrl });
+  await client.connect();
+  try {
+    await client.query(statement);
+  } finally {
+    await client.end();
+  }
+}
+
+async function openTestDatabase() {
+  if (!testPostgresUrl) {
+    const { db, sqlite } = openDatabase(':memory:');
+    return { db, sqlite, pool: undefined, postgres: undefined, close: async () => sqlite.close() };
+  }
+  const schema = `test_${process.pid}_${++schemaCount}_${crypto.randomBytes(6).toString('hex')}`;
+  await onTestServer(`create schema ${schema}`);
+  const { db, pool } = openPostgres(testPostgresUrl, { schema, max: 4 });
+  let closing: Promise<void> | undefined;
+  return {
+    db,
+    sqlite: undefined,
+    pool,
+    postgres: { url: testPostgresUrl, schema },
+    // Some tests close an app twice (a test's own close and afterEach): the second waits for the first.
+    close: () =>
+      (closing ??= (async () => {
+        await pool.end();
+        await onTestServer(`drop schema ${schema} cascade`);
+      })()),
+  };
 }
 
 /**
  * A fresh in-memory database with one person per role, one site, job and open board of three
  * circuits, and the app over it. Small invented fixture, not the demo data.
  */
-export async function createTestApp(options: { presence?: Presence; smtpUrl?: string; dataDir?: string } = {}): Promise<TestApp> {
-  const { db, sqlite } = openDatabase(':memory:');
+export async function createTestApp(options: { presence?: PresenceTracker; smtpUrl?: string; dataDir?: string } = {}): Promise<TestApp> {
+  const opened = await openTestDatabase();
+  const { db, sqlite } = opened;
   await migrateToLatest(db);
   const hash = bcrypt.hashSync(password, 4);
   const insertUser = async (email: string, name: string, role: 'admin' | 'tester' | 'reviewer') =>
@@ -57,6 +104,7 @@ export async function createTestApp(options: { presence?: Presence; smtpUrl?: st
   const app = createApp({
     db,
     sqlite,
+    postgres: opened.pool,
     sessionSecret: 'test-secret',
     signInAttemptsPerMinute: 1000,
     presence: options.presence,
@@ -69,14 +117,15 @@ export async function createTestApp(options: { presence?: Presence; smtpUrl?: st
     app,
     ids: { admin, tester, tester2, reviewer, site, job, board },
     dataDir,
+    postgres: opened.postgres,
     async signIn(role) {
       const agent = request.agent(app);
       const res = await agent.post('/api/auth/sign-in').send({ email: emails[role], password });
       if (res.status !== 200) throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`);
       return agent;
     },
-    close: () => {
-      sqlite.close();
+    close: async () => {
+      await opened.close();
       if (!options.dataDir) fs.rmSync(dataDir, { recursive: true, force: true });
     },
   };
