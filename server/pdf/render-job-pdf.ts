@@ -326,7 +326,8 @@ function table(w: Writer, cols: readonly TableColumn[], rows: readonly (readonly
       const text = row[i] ?? '';
       if (col.wrap && lines > 1) {
         doc.font('regular').fontSize(size).fillColor(ink);
-        doc.text(text, x + 2, y + 1.5, { width: col.width - 4, height: lines * line, ellipsis: true, lineGap: line - size * 1.17 });
+        // `line` is a little more than the font's own line height, so `lines` lines always fit.
+        doc.text(text, x + 2, y + 1.5, { width: col.width - 4, height: lines * line + 1, ellipsis: true });
       } else {
         cellText(doc, text, x, y + 1.5, col.width, col.align, size);
       }
