@@ -14,6 +14,7 @@ import { Presence } from './presence.ts';
 import { authRoutes } from './routes/auth.ts';
 import { boardRoutes } from './routes/boards.ts';
 import { checkRoutes } from './routes/check.ts';
+import { reviewRoutes } from './routes/review.ts';
 import { siteRoutes } from './routes/sites.ts';
 import { userRoutes } from './routes/users.ts';
 
@@ -77,6 +78,7 @@ export function createApp(options: AppOptions): Express {
   api.use('/check', checkRoutes());
   api.use('/boards', boardRoutes(db, presence));
   api.use('/', siteRoutes(db));
+  api.use('/', reviewRoutes(db));
   api.use(apiNotFound);
   app.use('/api', api);
 
