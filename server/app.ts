@@ -14,6 +14,8 @@ import { Presence } from './presence.ts';
 import { authRoutes } from './routes/auth.ts';
 import { boardRoutes } from './routes/boards.ts';
 import { checkRoutes } from './routes/check.ts';
+import { companyRoutes } from './routes/company.ts';
+import { jobRoutes } from './routes/jobs.ts';
 import { reviewRoutes } from './routes/review.ts';
 import { siteRoutes } from './routes/sites.ts';
 import { userRoutes } from './routes/users.ts';
@@ -77,6 +79,8 @@ export function createApp(options: AppOptions): Express {
   api.use('/users', userRoutes(db));
   api.use('/check', checkRoutes());
   api.use('/boards', boardRoutes(db, presence));
+  api.use('/jobs', jobRoutes(db));
+  api.use('/company', companyRoutes(db));
   api.use('/', siteRoutes(db));
   api.use('/', reviewRoutes(db));
   api.use(apiNotFound);

@@ -63,6 +63,19 @@ export interface JobHistoryTable {
   version: number | null;
 }
 
+/** Append-only history of a site's details: one row per changed field, values as JSON text. */
+export interface SiteHistoryTable {
+  id: Generated<number>;
+  site_id: number;
+  field: string | null;
+  action: string;
+  old_text: string | null;
+  new_text: string | null;
+  user_id: number | null;
+  at: string;
+  version: number | null;
+}
+
 export interface BoardTable {
   id: Generated<number>;
   job_id: number;
@@ -213,6 +226,7 @@ export interface AppSettingTable {
 export interface Database {
   users: UserTable;
   sites: SiteTable;
+  site_history: SiteHistoryTable;
   jobs: JobTable;
   job_sections: JobSectionTable;
   job_history: JobHistoryTable;
@@ -231,6 +245,7 @@ export interface Database {
 export type UserRow = Selectable<UserTable>;
 export type NewUserRow = Insertable<UserTable>;
 export type SiteRow = Selectable<SiteTable>;
+export type SiteHistoryRow = Selectable<SiteHistoryTable>;
 export type JobRow = Selectable<JobTable>;
 export type JobSectionRow = Selectable<JobSectionTable>;
 export type JobHistoryRow = Selectable<JobHistoryTable>;

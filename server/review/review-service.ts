@@ -11,10 +11,12 @@ import type { JobSectionData } from '../../shared/schemas/job-record.ts';
 import type { BoardGate, JobGate, ReviewCounts, ReviewFinding, FindingAcceptance } from '../../shared/schemas/review.ts';
 import { loadBoardWithContext, type BoardWithContext } from '../db/boards.ts';
 import type { DB } from '../db/database.ts';
-import { listAcceptanceRows, loadJobRecordData, toAcceptance } from '../db/review.ts';
+import { loadJobRecord } from '../db/job-sections.ts';
+import { listAcceptanceRows, toAcceptance } from '../db/review.ts';
 import type { FindingAcceptanceRow, JobRow } from '../db/types.ts';
 import { userNames } from '../db/users.ts';
 import { findingsFor } from '../findings.ts';
+import { recordData } from '../job-findings.ts';
 
 export interface BoardReview {
   context: BoardWithContext;
@@ -64,7 +66,7 @@ export async function reviewJob(db: DB, job: JobRow): Promise<JobReview> {
     const review = await reviewBoard(db, id);
     if (review) boards.push(review);
   }
-  const record = await loadJobRecordData(db, job.id);
+  const record = recordData(await loadJobRecord(db, job.id));
   const jobFindings = checkJob({
     kind: job.kind,
     record,

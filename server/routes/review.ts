@@ -15,7 +15,8 @@ import {
 } from '../../shared/schemas/review.ts';
 import type { DB } from '../db/database.ts';
 import { toBoard, toJob, toSite } from '../db/mappers.ts';
-import { appendJobHistoryEntry, findJobRow, latestSubmissions, listAcceptanceRows, setJobState, toAcceptance } from '../db/review.ts';
+import { appendJobHistory, findJobRow } from '../db/jobs.ts';
+import { latestSubmissions, listAcceptanceRows, setJobState, toAcceptance } from '../db/review.ts';
 import type { JobRow } from '../db/types.ts';
 import { userNames } from '../db/users.ts';
 import { HttpError, notFound } from '../http-error.ts';
@@ -147,7 +148,7 @@ export function reviewRoutes(db: DB): Router {
         })
         .returning('id')
         .executeTakeFirstOrThrow();
-      await appendJobHistoryEntry(trx, {
+      await appendJobHistory(trx, {
         job_id: job.id,
         section: null,
         field: body.findingKey,
@@ -180,7 +181,7 @@ export function reviewRoutes(db: DB): Router {
         }
       }
       await trx.deleteFrom('finding_acceptances').where('id', '=', row.id).execute();
-      await appendJobHistoryEntry(trx, {
+      await appendJobHistory(trx, {
         job_id: job.id,
         section: null,
         field: row.finding_key,
