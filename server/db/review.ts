@@ -63,3 +63,15 @@ export function toAcceptance(row: FindingAcceptanceRow, names: PersonNames): Fin
     acceptedAt: row.accepted_at,
   };
 }
+
+/** The newest change of a job's state (action `state`), or undefined. */
+export function latestStateChange(db: DB, jobId: number) {
+  return db
+    .selectFrom('job_history')
+    .select(['old_text', 'new_text', 'user_id', 'at', 'reason'])
+    .where('job_id', '=', jobId)
+    .where('action', '=', 'state')
+    .orderBy('id', 'desc')
+    .limit(1)
+    .executeTakeFirst();
+}

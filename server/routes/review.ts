@@ -16,7 +16,7 @@ import {
 import type { DB } from '../db/database.ts';
 import { toBoard, toJob, toSite } from '../db/mappers.ts';
 import { appendJobHistory, findJobRow } from '../db/jobs.ts';
-import { latestSubmissions, listAcceptanceRows, setJobState, toAcceptance } from '../db/review.ts';
+import { latestStateChange, latestSubmissions, listAcceptanceRows, setJobState, toAcceptance } from '../db/review.ts';
 import type { JobRow } from '../db/types.ts';
 import { userNames } from '../db/users.ts';
 import { HttpError, notFound } from '../http-error.ts';
@@ -97,7 +97,22 @@ export function reviewRoutes(db: DB): Router {
 
   router.get('/jobs/:jobId/gate', async (req, res) => {
     const job = await requireJob(db, idParam(req, 'jobId'));
-    res.json((await reviewJob(db, job)).gate);
+    const { gate } = await reviewJob(db, job);
+    const last = await latestStateChange(db, job.id);
+    const names = await userNames(db);
+    const text = (json: string | null) => {
+      try {
+        return json === null ? '' : String(JSON.parse(json));
+      } catch {
+        return json ?? '';
+      }
+    };
+    res.json({
+      ...gate,
+      lastChange: last
+        ? { from: text(last.old_text), to: text(last.new_text), by: last.user_id === null ? null : { id: last.user_id, name: names.get(last.user_id) ?? 'former user' }, at: last.at, reason: last.reason }
+        : null,
+    });
   });
 
   router.get('/boards/:boardId/gate', async (req, res) => {

@@ -75,6 +75,11 @@ export const jobGateResponseSchema = z.object({
   canApprove: z.boolean(),
   reasons: z.array(z.string()),
   boards: z.array(boardGateSchema),
+  /** The newest change of state, with who, when and the note or reason (GET /gate only). */
+  lastChange: z
+    .object({ from: z.string(), to: z.string(), by: personRef.nullable(), at: z.string(), reason: z.string().nullable() })
+    .nullable()
+    .optional(),
 });
 export type JobGate = z.infer<typeof jobGateResponseSchema>;
 
