@@ -12,7 +12,8 @@ import { RouteErrorPage } from './route-error-page.tsx';
 /**
  * Every route of the app. Signed-out people reach only /sign-in; the rest sits behind RequireAuth
  * inside the app layout. The board console (the largest part of the client: grid, palette,
- * checker) is loaded when a board is first opened, so sign-in and the jobs list start quickly.
+ * checker) is loaded when a board is first opened, and the job screen when a job is first opened,
+ * so sign-in and the jobs list start quickly.
  */
 export const appRoutes: RouteObject[] = [
   {
@@ -38,6 +39,13 @@ export const appRoutes: RouteObject[] = [
             lazy: async () => {
               const { BoardConsolePage } = await import('../features/board-console/components/board-console-page.tsx');
               return { Component: BoardConsolePage };
+            },
+          },
+          {
+            path: 'jobs/:jobId',
+            lazy: async () => {
+              const { JobRoute } = await import('./job-route.tsx');
+              return { Component: JobRoute };
             },
           },
           {
