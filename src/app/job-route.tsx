@@ -1,10 +1,12 @@
-import { useNavigate } from 'react-router-dom';
+import { useNavigate, useParams } from 'react-router-dom';
+import { useMe } from '../features/auth/api/get-me.ts';
 import { useJobs } from '../features/jobs/api/get-jobs.ts';
 import { EditJobForm } from '../features/jobs/components/forms/edit-job-form.tsx';
 import { NewBoardForm } from '../features/jobs/components/forms/new-board-form.tsx';
 import { SiteForm } from '../features/jobs/components/forms/site-form.tsx';
 import { JobRecordPage } from '../features/job-record/components/job-record-page.tsx';
 import type { JobScreenAction } from '../features/job-record/commands.ts';
+import { JobStatePanel } from '../features/review/components/job-state-panel.tsx';
 import type { JobDetail } from '../../shared/schemas/jobs.ts';
 
 /**
@@ -13,7 +15,11 @@ import type { JobDetail } from '../../shared/schemas/jobs.ts';
  * features add (review, signing, issue, mail) — place them in `panels`.
  */
 export function JobRoute() {
-  return <JobRecordPage actions={jobActions} />;
+  const { jobId: param } = useParams();
+  const jobId = Number(param);
+  const me = useMe();
+  const valid = Number.isSafeInteger(jobId) && jobId > 0;
+  return <JobRecordPage actions={jobActions} panels={valid ? <JobStatePanel jobId={jobId} role={me.data?.role ?? null} /> : null} />;
 }
 
 function NewBoardAction({ detail }: { detail: JobDetail }) {
