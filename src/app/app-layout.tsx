@@ -45,7 +45,7 @@ export function AppLayout() {
             </NavLink>
           )}
           {me?.role === 'admin' && (
-            <NavLink to="/admin/users" className={navLinkClass}>
+            <NavLink to="/admin" className={navLinkClass}>
               Admin
             </NavLink>
           )}
