@@ -64,13 +64,14 @@ export function toAcceptance(row: FindingAcceptanceRow, names: PersonNames): Fin
   };
 }
 
-/** The newest change of a job's state (action `state`), or undefined. */
+/** The newest change of a job's state (submit, approve, send back, issue, reopen), or undefined. */
 export function latestStateChange(db: DB, jobId: number) {
   return db
     .selectFrom('job_history')
     .select(['old_text', 'new_text', 'user_id', 'at', 'reason'])
     .where('job_id', '=', jobId)
-    .where('action', '=', 'state')
+    // `issued` and `reopened` are written by the issue routes.
+    .where('action', 'in', ['state', 'issued', 'reopened'])
     .orderBy('id', 'desc')
     .limit(1)
     .executeTakeFirst();
