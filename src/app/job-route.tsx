@@ -5,8 +5,11 @@ import { EditJobForm } from '../features/jobs/components/forms/edit-job-form.tsx
 import { NewBoardForm } from '../features/jobs/components/forms/new-board-form.tsx';
 import { SiteForm } from '../features/jobs/components/forms/site-form.tsx';
 import { JobRecordPage } from '../features/job-record/components/job-record-page.tsx';
+import { SendPanel } from '../features/mail/components/send-panel.tsx';
+import { SigningPanel } from '../features/signing/components/signing-panel.tsx';
 import type { JobScreenAction } from '../features/job-record/commands.ts';
 import { IssuePanel } from '../features/issue/components/issue-panel.tsx';
+import { JobStatePanel } from '../features/review/components/job-state-panel.tsx';
 import type { JobDetail } from '../../shared/schemas/jobs.ts';
 
 /**
@@ -15,11 +18,22 @@ import type { JobDetail } from '../../shared/schemas/jobs.ts';
  * features add (review, signing, issue, mail) — place them in `panels`.
  */
 export function JobRoute() {
-  const { jobId: param } = useParams();
-  const jobId = Number(param);
-  const me = useMe();
-  const valid = Number.isSafeInteger(jobId) && jobId > 0;
-  return <JobRecordPage actions={jobActions} panels={valid ? <IssuePanel jobId={jobId} role={me.data?.role ?? null} /> : null} />;
+  return <JobRecordPage actions={jobActions} panels={<JobPanels />} />;
+}
+
+/** The job's state and gate, signing and sending to the client, beside the record. */
+function JobPanels() {
+  const jobId = Number(useParams().jobId);
+  const { data: me } = useMe();
+  if (!me || !Number.isSafeInteger(jobId) || jobId <= 0) return null;
+  return (
+    <>
+      <JobStatePanel jobId={jobId} role={me.role} />
+      <SigningPanel jobId={jobId} person={{ role: me.role, name: me.name }} />
+      <IssuePanel jobId={jobId} role={me.role} />
+      <SendPanel jobId={jobId} personRole={me.role} />
+    </>
+  );
 }
 
 function NewBoardAction({ detail }: { detail: JobDetail }) {

@@ -20,6 +20,8 @@ export interface ConsoleContext {
   sync: BoardSync;
   /** The signed-in person's role; null while it is not known. */
   role: Role | null;
+  /** Why the board cannot be locked yet (shared/review/gate.ts); null or absent while not known. */
+  lockReasons?: readonly string[] | null;
   grid: GridController;
   /** The conflict on the active cell, if any. */
   activeConflict: Conflict | null;
@@ -578,7 +580,10 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
       keywords: ['lock', 'review', 'finish', 'freeze'],
       when: (ctx) => {
         if (ctx.role !== 'reviewer' && ctx.role !== 'admin') return 'Only a reviewer or an admin can lock a board';
-        return ctx.detail.board.state === 'locked' ? 'The board is already locked' : true;
+        if (ctx.detail.board.state === 'locked') return 'The board is already locked';
+        // The completeness gate, shown before anyone tries; the server checks it again at locking.
+        const reasons = ctx.lockReasons ?? [];
+        return reasons.length === 0 ? true : `Not yet — ${reasons.length} ${reasons.length === 1 ? 'reason' : 'reasons'}: ${reasons.join(' · ')}`;
       },
       run: async (ctx) => {
         if (ctx.grid.stateRef.current.edit) ctx.grid.commitEdit(null);
