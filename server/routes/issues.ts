@@ -55,7 +55,15 @@ export function issueRoutes(db: DB, options: { dataDir: string }): Router {
     const pdf = await renderJobPdf(document, { revision, issuedAt, issuedBy: user.name });
     const sha256 = sha256Hex(pdf);
     const relative = `issued/job-${jobId}/${safeName(job.reference)}-rev${revision}-${sha256.slice(0, 12)}.pdf`;
-    await writeNewFile(dataDir, relative, pdf);
+    try {
+      await writeNewFile(dataDir, relative, pdf);
+    } catch (error) {
+      // The same revision with the same bytes is already on disk: another request is issuing it.
+      if ((error as NodeJS.ErrnoException).code === 'EEXIST') {
+        throw new HttpError('conflict', `${job.reference} is being issued by another request; look again in a moment.`);
+      }
+      throw error;
+    }
 
     try {
       await db.transaction().execute(async (trx) => {
