@@ -82,7 +82,7 @@ export function issueRoutes(db: DB, options: { dataDir: string }): Router {
         await trx.updateTable('jobs').set({ state: 'issued', version: job.version + 1 }).where('id', '=', jobId).execute();
         await trx
           .insertInto('job_history')
-          .values({ job_id: jobId, section: null, field: 'state', action: 'issued', old_text: JSON.stringify(job.state), new_text: JSON.stringify('issued'), reason: `revision ${revision}, SHA-256 ${sha256}`, user_id: user.id, at, version: job.version + 1 })
+          .values({ job_id: jobId, section: null, field: 'state', action: 'issued', old_text: JSON.stringify(job.state), new_text: JSON.stringify('issued'), reason: `revision ${revision}`, user_id: user.id, at, version: job.version + 1 })
           .execute();
       });
     } catch (error) {
