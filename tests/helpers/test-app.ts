@@ -3,6 +3,7 @@ import fs from 'node:fs';
 import type { Server } from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import type { AddressInfo } from 'node:net';
 import bcrypt from 'bcryptjs';
 import pg from 'pg';
@@ -22,49 +23,102 @@ export interface TestApp {
   dataDir: string;
   /** A supertest agent signed in as one of the accounts (cookies kept). */
   signIn(role: 'admin' | 'tester' | 'tester2' | 'reviewer'): Promise<ReturnType<typeof request.agent>>;
-  /** On PostgreSQL (BOARDWALK_TEST_DATABASE_URL): the server and this app's own schema. */
-  postgres?: { url: string; schema: string };
+  /** On PostgreSQL (BOARDWALK_TEST_DATABASE_URL): the URL of this app's own database. */
+  postgres?: { url: string };
   close(): Promise<void>;
 }
 
 /**
  * Set (by .ci/run, or by hand) to a PostgreSQL server's URL, the server tests run there instead of
- * in-memory SQLite: each test app gets a fresh schema of its own, dropped by `close()`.
+ * in-memory SQLite: each test app gets a fresh database of its own, dropped by `close()`.
  */
 export const testPostgresUrl = process.env.BOARDWALK_TEST_DATABASE_URL || undefined;
 
-let schemaCount = 0;
-
-/** Runs one statement on the test server outside any app (creating and dropping schemas). */
-async function onTestServer(statement: string): Promise<void> {
+/** Runs statements on the test server outside any app (creating and dropping databases). */
+async function onTestServer<T>(work: (client: pg.Client) => Promise<T>): Promise<T> {
   const client = new pg.Client({ connectionString: testPostgresUrl });
   await client.connect();
   try {
-    await client.query(statement);
+    return await work(client);
   } finally {
     await client.end();
   }
 }
 
+function databaseUrl(name: string): string {
+  const url = new URL(testPostgresUrl!);
+  url.pathname = `/${name}`;
+  return url.toString();
+}
+
+const migrationsDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../migrations');
+
+/** Every file under migrations/ (names and contents), so a changed migration makes a new template. */
+function migrationsFingerprint(): string {
+  const hash = crypto.createHash('sha256');
+  const walk = (dir: string) => {
+    for (const entry of fs.readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
+      const full = path.join(dir, entry.name);
+      if (entry.isDirectory()) walk(full);
+      else hash.update(`${path.relative(migrationsDir, full)}\0`).update(fs.readFileSync(full)).update('\0');
+    }
+  };
+  walk(migrationsDir);
+  return hash.digest('hex').slice(0, 16);
+}
+
+let template: Promise<string> | undefined;
+
+/**
+ * A database with every migration applied, made once per set of migrations (the first test worker
+ * to need it builds it under an advisory lock; the others wait and reuse it). Each test app is then
+ * a copy (`create database … template …`, ≈ 60 ms) rather than a fresh migration (≈ 300 ms).
+ */
+function migratedTemplate(): Promise<string> {
+  return (template ??= onTestServer(async (client) => {
+    const name = `boardwalk_template_${migrationsFingerprint()}`;
+    await client.query('select pg_advisory_lock(hashtext($1))', [name]);
+    const exists = (await client.query('select 1 from pg_database where datname = $1', [name])).rowCount;
+    if (!exists) {
+      // Built under another name and renamed when complete, so a failed build is never copied.
+      const building = `${name}_building`;
+      await client.query(`drop database if exists ${building} with (force)`);
+      await client.query(`create database ${building}`);
+      const { db, pool } = openPostgres(databaseUrl(building), { max: 1 });
+      try {
+        await migrateToLatest(db);
+      } finally {
+        await pool.end();
+      }
+      await client.query(`alter database ${building} rename to ${name}`);
+    }
+    await client.query('select pg_advisory_unlock(hashtext($1))', [name]);
+    return name;
+  }));
+}
+
 async function openTestDatabase() {
   if (!testPostgresUrl) {
     const { db, sqlite } = openDatabase(':memory:');
+    await migrateToLatest(db);
     return { db, sqlite, pool: undefined, postgres: undefined, close: async () => sqlite.close() };
   }
-  const schema = `test_${process.pid}_${++schemaCount}_${crypto.randomBytes(6).toString('hex')}`;
-  await onTestServer(`create schema ${schema}`);
-  const { db, pool } = openPostgres(testPostgresUrl, { schema, max: 4 });
+  const templateName = await migratedTemplate();
+  const name = `boardwalk_test_${process.pid}_${crypto.randomBytes(6).toString('hex')}`;
+  await onTestServer((client) => client.query(`create database ${name} template ${templateName}`));
+  const url = databaseUrl(name);
+  const { db, pool } = openPostgres(url, { max: 4 });
   let closing: Promise<void> | undefined;
   return {
     db,
     sqlite: undefined,
     pool,
-    postgres: { url: testPostgresUrl, schema },
+    postgres: { url },
     // Some tests close an app twice (a test's own close and afterEach): the second waits for the first.
     close: () =>
       (closing ??= (async () => {
         await pool.end();
-        await onTestServer(`drop schema ${schema} cascade`);
+        await onTestServer((client) => client.query(`drop database ${name} with (force)`));
       })()),
   };
 }
@@ -76,7 +130,6 @@ async function openTestDatabase() {
 export async function createTestApp(options: { presence?: PresenceTracker; smtpUrl?: string; dataDir?: string } = {}): Promise<TestApp> {
   const opened = await openTestDatabase();
   const { db, sqlite } = opened;
-  await migrateToLatest(db);
   const hash = bcrypt.hashSync(password, 4);
   const insertUser = async (email: string, name: string, role: 'admin' | 'tester' | 'reviewer') =>
     (await db.insertInto('users').values({ email, name, role, password_hash: hash }).returning('id').executeTakeFirstOrThrow()).id;
