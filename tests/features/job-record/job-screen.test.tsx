@@ -12,6 +12,9 @@ function renderJob(server: ReturnType<typeof createFakeJobServer>) {
 
 const puts = (calls: ApiCall[], section: string) => calls.filter((c) => c.method === 'PUT' && c.path.endsWith(`/record/${section}`));
 
+// The whole screen renders in jsdom; on a busy two-core machine the first render alone can take seconds.
+vi.setConfig({ testTimeout: 20_000 });
+
 afterEach(() => {
   vi.unstubAllGlobals();
 });
@@ -153,5 +156,25 @@ describe('job screen: the server refuses an observation', () => {
     await waitFor(() => expect(board).toHaveAttribute('aria-invalid', 'true'));
     expect(within(dialog).getByText('Board 301 is not a board of this job.')).toBeInTheDocument();
     expect(screen.getByRole('dialog', { name: 'New observation' })).toBeInTheDocument();
+  });
+});
+
+describe('job screen: changes to the record', () => {
+  it('when the changes are opened, then each saved field shows with who changed it, from what to what, newest first', async () => {
+    const server = createFakeJobServer('EICR');
+    const { user } = renderJob(server);
+    const ze = await screen.findByLabelText('External loop impedance Ze (Ω)');
+    await user.click(ze);
+    await user.keyboard('0.28{Enter}0.3{Enter}');
+    await waitFor(() => expect(server.record.supply.data.ipfKa).toBe(0.3));
+
+    const summary = screen.getByText('Changes to the record');
+    await user.click(summary);
+    const panel = summary.closest('details')!;
+    await waitFor(() => expect(within(panel).getAllByRole('listitem')).toHaveLength(2));
+    const items = within(panel).getAllByRole('listitem');
+    expect(items[0]).toHaveTextContent('Dana Whitlock');
+    expect(items[0]).toHaveTextContent('Supply characteristics and earthing arrangements, Prospective fault current Ipf (kA): blank → 0.3');
+    expect(items[1]).toHaveTextContent('External loop impedance Ze (Ω): blank → 0.28');
   });
 });

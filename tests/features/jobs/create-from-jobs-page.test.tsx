@@ -45,6 +45,9 @@ beforeEach(() => {
   });
 });
 
+// The whole screen renders in jsdom; on a busy two-core machine the first render alone can take seconds.
+vi.setConfig({ testTimeout: 20_000 });
+
 afterEach(() => {
   vi.unstubAllGlobals();
 });

@@ -32,6 +32,15 @@ export function JobHeader() {
           {job.visitEndDate && job.visitEndDate !== job.visitDate ? ` to ${longDate(job.visitEndDate)}` : ''}
         </span>
       </div>
+      {job.startedFromJobId !== null && (
+        <p className="text-sm text-muted">
+          Started from{' '}
+          <Link to={`/jobs/${job.startedFromJobId}`} className="text-accent underline-offset-2 hover:underline">
+            an earlier job on this site
+          </Link>
+          : its boards and circuit details were copied, readings start empty.
+        </p>
+      )}
       <p>
         <span className="font-medium">{site.client}</span> · {site.address}
         {site.description && <span className="text-muted"> · {site.description}</span>}

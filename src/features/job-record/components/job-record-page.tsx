@@ -24,6 +24,7 @@ import {
 import { InspectionsSchedule, type InspectionsHandle } from './inspections-schedule.tsx';
 import { JobFindings } from './job-findings.tsx';
 import { JobHeader } from './job-header.tsx';
+import { JobHistory } from './job-history.tsx';
 import { ObservationForm, ObservationsSection, useObservationList, type ObservationFormTarget } from './observations.tsx';
 import { fieldDomId, RecordContext, sectionDomId, type RecordContextValue } from './record-context.tsx';
 import { ClientSection, ExtentSection, InstallationSection, OriginSection, SupplySection, WorkSection } from './record-sections.tsx';
@@ -175,6 +176,7 @@ function JobScreen({ detail, saver, actions = [], panels }: JobRecordPageProps &
           <aside className="space-y-4 xl:sticky xl:top-4" aria-label="Findings and more">
             <JobFindings onGoTo={goToFinding} />
             {panels}
+            <JobHistory />
             <Caution />
           </aside>
         </div>
