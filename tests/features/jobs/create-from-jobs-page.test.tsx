@@ -187,3 +187,16 @@ describe('editing a site from the jobs page', () => {
     expect(screen.getByText('Site Harbour Bakery saved.')).toBeInTheDocument();
   });
 });
+
+describe('going to a job screen from the jobs page', () => {
+  it('when Go to a job is chosen by its key and a job named, then its job screen opens', async () => {
+    const { user, currentPath } = renderJobs();
+    await screen.findByRole('link', { name: 'DB1' });
+    await user.keyboard('{Alt>}{Shift>}g{/Shift}{/Alt}');
+    await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('EL-NEW{Enter}');
+    await waitFor(() => expect(currentPath()).toBe('/jobs/20'));
+    // Each job also has its own link.
+    expect(screen.getByText('Job screen')).toBeInTheDocument();
+  });
+});
