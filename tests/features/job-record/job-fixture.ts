@@ -115,6 +115,6 @@ export function createFakeJobServer(kind: 'EIC' | 'EICR' = 'EICR', state: Job['s
       'GET /api/sites': () => json(200, { sites: [site] }),
       'GET /api/jobs': () => json(200, { jobs: [theJob] }),
       'GET /api/boards': () => json(200, { boards: [board] }),
-    } as Record<string, (call: ApiCall) => Response>,
+    } as Record<string, (call: ApiCall) => Response | Promise<Response>>,
   };
 }

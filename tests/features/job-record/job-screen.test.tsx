@@ -178,3 +178,39 @@ describe('job screen: changes to the record', () => {
     expect(items[1]).toHaveTextContent('External loop impedance Ze (Ω): blank → 0.28');
   });
 });
+
+describe('job screen: a slow reload of the job', () => {
+  it('when a reload that started before a save lands after it, then the saved value stays and the next save of the same field carries the newer version', async () => {
+    const server = createFakeJobServer('EICR');
+    const { user, calls, queryClient } = renderJob(server);
+    const ze = await screen.findByLabelText('External loop impedance Ze (Ω)');
+
+    // A reload of the job starts now, but its answer (taken now, before the save) arrives late.
+    let release!: () => void;
+    const released = new Promise<void>((resolve) => (release = resolve));
+    const getJob = server.handlers['GET /api/jobs/41']!;
+    server.handlers['GET /api/jobs/41'] = async (call) => {
+      const answer = getJob(call);
+      await released;
+      return answer;
+    };
+    void queryClient.invalidateQueries({ queryKey: ['jobs'] });
+
+    await user.click(ze);
+    await user.keyboard('0.28{Tab}');
+    await waitFor(() => expect(server.record.supply.data.zeOhm).toBe(0.28));
+    release();
+    await waitFor(() => expect(calls.filter((c) => c.method === 'GET' && c.path === '/api/jobs/41')).toHaveLength(2));
+    await new Promise((resolve) => setTimeout(resolve, 50));
+    expect(ze).toHaveValue('0.28');
+
+    await user.clear(ze);
+    await user.type(ze, '0.31{Tab}');
+    await waitFor(() => expect(server.record.supply.data.zeOhm).toBe(0.31));
+    expect(puts(calls, 'supply').map((c) => c.body)).toEqual([
+      { version: 0, changes: { zeOhm: 0.28 } },
+      { version: 1, changes: { zeOhm: 0.31 } },
+    ]);
+    expect(screen.queryByRole('alert')).not.toBeInTheDocument();
+  });
+});

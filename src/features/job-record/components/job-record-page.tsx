@@ -41,10 +41,10 @@ export interface JobRecordPageProps {
 export function JobRecordPage(props: JobRecordPageProps) {
   const { jobId: param } = useParams();
   const jobId = Number(param);
-  const job = useJobDetail(jobId);
   const queryClient = useQueryClient();
   // One saver per job shown: it keeps the save state of every field.
   const saver = useMemo(() => new RecordSaver(queryClient, jobId), [queryClient, jobId]);
+  const job = useJobDetail(jobId, saver.withLatest);
 
   if (!Number.isInteger(jobId) || jobId <= 0) return <p className="p-4">There is no such job.</p>;
   if (job.isPending) return <p className="p-4 text-muted">Loading the job…</p>;
