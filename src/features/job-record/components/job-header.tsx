@@ -49,7 +49,7 @@ export function JobHeader() {
       <div>
         <h2 className="text-sm font-semibold">Boards</h2>
         {boards.length === 0 ? (
-          <p className="text-muted">No boards yet. Add one with the “New board” command.</p>
+          <p className="text-muted">No boards yet. Add one with “New board” (Alt+Shift+B, or from the palette).</p>
         ) : (
           <table className="w-full max-w-3xl text-sm">
             <caption className="sr-only">Boards of this job</caption>
