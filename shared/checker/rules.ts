@@ -841,6 +841,11 @@ export function spurOriginFraction(origin: string | null, ringPoints: number | n
   return null;
 }
 
+/** Whether a spur's origin names a socket by number ("socket 4", "4") rather than a fraction. */
+function isSocketNumber(origin: string | null): boolean {
+  return origin !== null && /^(?:socket|skt|point|pt|no\.?|#)?\s*\d+$/.test(origin.trim().toLowerCase());
+}
+
 function fractionOrNull(x: number): number | null {
   return Number.isFinite(x) && x >= 0 && x <= 1 ? x : null;
 }
@@ -996,6 +1001,29 @@ function spurRules(spurFacts: CircuitFacts, ring: CircuitFacts, out: Finding[]):
   const perMetre = r1PlusR2PerMetre(spur.liveCsaMm2, spur.cpcCsaMm2);
   if (!perMetre.ok) return;
   const x = spurOriginFraction(spur.spurOriginPoint, ring.circuit.points);
+  const cableOhm = (spur.spurLengthM * perMetre.milliohmPerMetre) / 1000;
+  // "socket 4" says which socket, not where it is along the ring: the ring's value there is anywhere
+  // in the sound range r1·r2/(r1+r2) … (r1+r2)/4, so the spur is judged against that range.
+  if (x !== null && isSocketNumber(spur.spurOriginPoint) && ring.ringR1 !== null && ring.ringR2 !== null && ring.ringR1 + ring.ringR2 > 0) {
+    const r1 = ring.ringR1;
+    const r2 = ring.ringR2;
+    const low = (r1 * r2) / (r1 + r2) + cableOhm;
+    const high = (r1 + r2) / 4 + cableOhm;
+    const allowance = Math.max(SPUR_ALLOWANCE_OHM, SPUR_ALLOWANCE_FRACTION * high);
+    if (measured < low - allowance - EPS || measured > high + allowance + EPS) {
+      out.push(
+        finding(
+          'spur-r1r2-unexpected',
+          spur.id,
+          ['r1PlusR2'],
+          `Spur R1+R2 ${ohmReading(measured)} Ω; expected ${formatFixed(low, 2)}–${formatFixed(high, 2)} Ω: the ring reads ${formatFixed(low - cableOhm, 2)}–${formatFixed(high - cableOhm, 2)} Ω at a socket (from r1 and r2, wherever ${spur.spurOriginPoint!.trim()} is) + ${spur.spurLengthM} m of ${spur.liveCsaMm2}/${spur.cpcCsaMm2} at ${perMetre.milliohmPerMetre} mΩ/m.`,
+          `${formatFixed(Math.max(0, low - allowance), 2)}–${formatFixed(high + allowance, 2)} Ω`,
+          `ring range r1·r2/(r1+r2) … (r1+r2)/4 + length × R1+R2 per metre (${IEC_60228_SOURCE}); allowance ± the larger of 0.05 Ω and 10 % — common practice`,
+        ),
+      );
+    }
+    return;
+  }
   let ringValue: number | null = null;
   let basis: 'origin' | 'recorded' | 'quarter' = 'recorded';
   if (x !== null && ring.ringR1 !== null && ring.ringR2 !== null && ring.ringR1 + ring.ringR2 > 0) {
@@ -1008,7 +1036,6 @@ function spurRules(spurFacts: CircuitFacts, ring: CircuitFacts, out: Finding[]):
     basis = 'quarter';
   }
   if (ringValue === null) return;
-  const cableOhm = (spur.spurLengthM * perMetre.milliohmPerMetre) / 1000;
   const expected = ringValue + cableOhm;
   const allowance = Math.max(SPUR_ALLOWANCE_OHM, SPUR_ALLOWANCE_FRACTION * expected);
   if (Math.abs(measured - expected) > allowance + EPS) {

@@ -1,7 +1,9 @@
 import { Navigate, RouterProvider, createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { CompanyPage } from '../features/admin/components/company-page.tsx';
 import { UsersPage } from '../features/admin/components/users-page.tsx';
 import { SignInPage } from '../features/auth/components/sign-in-page.tsx';
 import { JobsPage } from '../features/jobs/components/jobs-page.tsx';
+import { AdminLayout } from './admin-layout.tsx';
 import { AppLayout } from './app-layout.tsx';
 import { FullPageMessage } from './full-page-message.tsx';
 import { NotFoundPage } from './not-found-page.tsx';
@@ -12,7 +14,8 @@ import { RouteErrorPage } from './route-error-page.tsx';
 /**
  * Every route of the app. Signed-out people reach only /sign-in; the rest sits behind RequireAuth
  * inside the app layout. The board console (the largest part of the client: grid, palette,
- * checker) is loaded when a board is first opened, so sign-in and the jobs list start quickly.
+ * checker) is loaded when a board is first opened, and the job screen when a job is first opened,
+ * so sign-in and the jobs list start quickly.
  */
 export const appRoutes: RouteObject[] = [
   {
@@ -41,12 +44,31 @@ export const appRoutes: RouteObject[] = [
             },
           },
           {
-            path: 'admin/users',
+            path: 'jobs/:jobId',
+            lazy: async () => {
+              const { JobRoute } = await import('./job-route.tsx');
+              return { Component: JobRoute };
+            },
+          },
+          {
+            path: 'admin',
             element: (
-              <RequireRole roles={['admin']} refusal="Only an admin can manage people.">
-                <UsersPage />
+              <RequireRole roles={['admin']} refusal="Only an admin can manage people, the company's details and the mailbox.">
+                <AdminLayout />
               </RequireRole>
             ),
+            children: [
+              { index: true, element: <Navigate to="/admin/users" replace /> },
+              { path: 'users', element: <UsersPage /> },
+              { path: 'company', element: <CompanyPage /> },
+              {
+                path: 'mailbox',
+                lazy: async () => {
+                  const { MailboxPage } = await import('../features/mail/components/mailbox-page.tsx');
+                  return { Component: MailboxPage };
+                },
+              },
+            ],
           },
           { path: '*', element: <NotFoundPage /> },
         ],
