@@ -114,7 +114,6 @@ function toCheckCircuit(c: z.infer<typeof circuitFieldsSchema> & { id: number },
     spurOriginPoint: c.spurOriginPoint,
     spurLengthM: c.spurLengthM,
     maxZsByHandOhm: c.maxZsByHandOhm,
-    cableLengthM: c.cableLengthM,
     cells,
     previous,
   } satisfies Record<keyof Required<CheckCircuit>, unknown>;
