@@ -142,7 +142,11 @@ async function emptyDatabase(pool: pg.Pool): Promise<void> {
   }
 }
 
-async function openTestDatabase() {
+/**
+ * A fresh, migrated database for a test that builds its own app or seeds its own data: in-memory
+ * SQLite, or (BOARDWALK_TEST_DATABASE_URL) a PostgreSQL database of its own. `close()` ends it.
+ */
+export async function openTestDatabase() {
   if (!testPostgresUrl) {
     const { db, sqlite } = openDatabase(':memory:');
     await migrateToLatest(db);

@@ -1,14 +1,14 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
-import { openDatabase, type DB } from '../../server/db/database.ts';
-import { migrateToLatest } from '../../server/db/migrate.ts';
+import type { DB } from '../../server/db/database.ts';
 import { demoPassword, plantedFaults } from '../../server/db/seed/demo-scenario.ts';
 import { seedDemo } from '../../server/db/seed/seed-demo.ts';
 import { inspectionItemIds } from '../../shared/schemas/inspection-items.ts';
 import { jobDetailResponseSchema, type JobDetail } from '../../shared/schemas/jobs.ts';
 import { overallAssessment, sectionsFor, usualIntervalMonths, type JobSectionData, type Observation } from '../../shared/schemas/job-record.ts';
 import { siteListResponseSchema } from '../../shared/schemas/sites.ts';
+import { openTestDatabase } from '../helpers/test-app.ts';
 
 let db: DB;
 let close: () => void;
@@ -17,12 +17,11 @@ let eic: JobDetail;
 let eicr: JobDetail;
 
 beforeAll(async () => {
-  const opened = openDatabase(':memory:');
+  const opened = await openTestDatabase(); // SQLite, or PostgreSQL in .ci/run's second pass
   db = opened.db;
-  close = () => opened.sqlite.close();
-  await migrateToLatest(db);
+  close = opened.close;
   await seedDemo(db);
-  const app = createApp({ db, sqlite: opened.sqlite, sessionSecret: 'demo-records-test', signInAttemptsPerMinute: 1000 });
+  const app = createApp({ db, sqlite: opened.sqlite, postgres: opened.pool, sessionSecret: 'demo-records-test', signInAttemptsPerMinute: 1000 });
   agent = request.agent(app);
   expect((await agent.post('/api/auth/sign-in').send({ email: 'tester@boardwalk.test', password: demoPassword })).status).toBe(200);
   const jobs = await db.selectFrom('jobs').select(['id', 'kind']).execute();

@@ -1,10 +1,10 @@
 import bcrypt from 'bcryptjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openDatabase, type DB } from '../../server/db/database.ts';
-import { migrateToLatest } from '../../server/db/migrate.ts';
+import type { DB } from '../../server/db/database.ts';
 import { buildDemoScenario, demoAccounts, demoPassword, plantedFaults } from '../../server/db/seed/demo-scenario.ts';
 import { databaseHasUsers, seedDemo } from '../../server/db/seed/seed-demo.ts';
 import type { BoardRow, CellRow, CircuitRow } from '../../server/db/types.ts';
+import { openTestDatabase } from '../helpers/test-app.ts';
 
 /** Conductor resistance at 20 °C (Ω/km), IEC 60228 Table 2 (class 2), typed here independently of the seed. */
 const iec60228OhmPerKm: Record<number, number> = { 1: 18.1, 1.5: 12.1, 2.5: 7.41, 4: 4.61, 6: 3.08, 10: 1.83, 16: 1.15 };
@@ -68,10 +68,9 @@ const threePhase = (): LoadedBoard => {
 };
 
 beforeAll(async () => {
-  const opened = openDatabase(':memory:');
+  const opened = await openTestDatabase(); // SQLite, or PostgreSQL in .ci/run's second pass
   db = opened.db;
-  close = () => opened.sqlite.close();
-  await migrateToLatest(db);
+  close = opened.close;
   expect(await databaseHasUsers(db)).toBe(false);
   await seedDemo(db);
   boards = await loadBoards();
