@@ -2,6 +2,7 @@ import type { Server } from 'node:http';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
+import { SharedPresence } from '../../server/shared-presence.ts';
 import { openPostgres, type OpenedPostgres } from '../../server/db/database.ts';
 import { createTestApp, listen, password, testPostgresUrl, type TestApp } from '../helpers/test-app.ts';
 
@@ -120,5 +121,21 @@ describe.skipIf(!testPostgresUrl)('two instances on one PostgreSQL database', ()
     expect(cell).toEqual({ text: winner, version: 1 });
     const history = await t.db.selectFrom('history').select('new_text').where('circuit_id', '=', lights).where('column_key', '=', 'r1PlusR2').execute();
     expect(history).toEqual([{ new_text: winner }]);
+  });
+
+  it('when someone has not been seen for the window, then the shared presence no longer names them and their row is swept', async () => {
+    const onA = new SharedPresence(t.db, 400);
+    const onB = new SharedPresence(second.db, 400);
+    await onA.touch(t.ids.board, { id: t.ids.tester, name: 'Tom Tester' });
+    await onB.touch(t.ids.board, { id: t.ids.tester2, name: 'Tess Second' });
+    expect(await onB.others(t.ids.board, t.ids.tester2)).toEqual([{ id: t.ids.tester, name: 'Tom Tester' }]);
+    expect(await onA.others(t.ids.board, t.ids.tester)).toEqual([{ id: t.ids.tester2, name: 'Tess Second' }]);
+    // Another board is not this one.
+    expect(await onB.others(t.ids.board + 1, t.ids.tester2)).toEqual([]);
+    await new Promise((resolve) => setTimeout(resolve, 600));
+    await onB.touch(t.ids.board, { id: t.ids.tester2, name: 'Tess Second' });
+    expect(await onB.others(t.ids.board, t.ids.tester2)).toEqual([]);
+    const rows = await t.db.withTables<{ presence: { board_id: number; user_id: number } }>().selectFrom('presence').select('user_id').execute();
+    expect(rows).toEqual([{ user_id: t.ids.tester2 }]);
   });
 });
