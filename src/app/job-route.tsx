@@ -8,6 +8,7 @@ import { JobRecordPage } from '../features/job-record/components/job-record-page
 import { SendPanel } from '../features/mail/components/send-panel.tsx';
 import { SigningPanel } from '../features/signing/components/signing-panel.tsx';
 import type { JobScreenAction } from '../features/job-record/commands.ts';
+import { IssuePanel } from '../features/issue/components/issue-panel.tsx';
 import { JobStatePanel } from '../features/review/components/job-state-panel.tsx';
 import type { JobDetail } from '../../shared/schemas/jobs.ts';
 
@@ -20,7 +21,7 @@ export function JobRoute() {
   return <JobRecordPage actions={jobActions} panels={<JobPanels />} />;
 }
 
-/** The job's state and gate, signing and sending to the client, beside the record. */
+/** The job's state and gate, signing, issuing and sending to the client, beside the record. */
 function JobPanels() {
   const jobId = Number(useParams().jobId);
   const { data: me } = useMe();
@@ -29,6 +30,7 @@ function JobPanels() {
     <>
       <JobStatePanel jobId={jobId} role={me.role} />
       <SigningPanel jobId={jobId} person={{ role: me.role, name: me.name }} />
+      <IssuePanel jobId={jobId} role={me.role} />
       <SendPanel jobId={jobId} personRole={me.role} />
     </>
   );
