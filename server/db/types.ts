@@ -108,6 +108,8 @@ export interface CircuitTable {
   live_csa_mm2: number | null;
   cpc_csa_mm2: number | null;
   max_disconnection_s: number | null;
+  /** Length of the circuit cable (m), when known (migration 2026-12-02T0220). */
+  cable_length_m: number | null;
   device_standard: Generated<string>;
   device_type: Generated<string>;
   rating_a: number | null;

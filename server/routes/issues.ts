@@ -89,8 +89,8 @@ export function issueRoutes(db: DB, options: { dataDir: string }): Router {
 
   router.get('/jobs/:jobId/issues', async (req, res) => {
     const jobId = idParam(req, 'jobId');
-    await requireJob(db, jobId);
-    res.json({ issues: await listIssues(db, jobId) });
+    const job = await requireJob(db, jobId);
+    res.json({ job: toJob(job), issues: await listIssues(db, jobId) });
   });
 
   router.get('/jobs/:jobId/issues/:revision/pdf', async (req, res) => {

@@ -189,7 +189,7 @@ export function jobRoutes(db: DB): Router {
         throw new HttpError(
           'conflict',
           `Someone else changed ${names} in the ${sectionTitles[key]} section meanwhile; look at their value and write yours again if it should stand.`,
-          { current: result.current, fields: result.conflictingFields },
+          { section: result.current, fields: result.conflictingFields },
         );
       }
       return result.section;

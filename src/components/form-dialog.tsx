@@ -21,7 +21,9 @@ export function FormDialog({ title, onClose, children }: FormDialogProps) {
   const titleId = useId();
 
   useLayoutEffect(() => {
-    const first = dialogRef.current?.querySelector<HTMLElement>('[autofocus], input, select, textarea');
+    // A field that asked for the cursor (React's autoFocus) keeps it; otherwise the first field.
+    if (dialogRef.current?.contains(document.activeElement)) return;
+    const first = dialogRef.current?.querySelector<HTMLElement>('input, select, textarea');
     (first ?? dialogRef.current)?.focus();
   }, []);
 

@@ -80,7 +80,7 @@ describe('PUT /api/jobs/:jobId/record/:section', () => {
     const res = await b.put(url('summary')).send({ version: 0, changes: { generalCondition: 'Fair.', nextInspectionMonths: 60 } });
     expect(res.status).toBe(409);
     expect(res.body.error.message).toMatch(/generalCondition in the summary section/);
-    expect(res.body.error.details).toEqual({ current: { data: expect.objectContaining({ generalCondition: 'Sound, but the board is past its best.', nextInspectionMonths: null }), version: 1 }, fields: ['generalCondition'] });
+    expect(res.body.error.details).toEqual({ section: { data: expect.objectContaining({ generalCondition: 'Sound, but the board is past its best.', nextInspectionMonths: null }), version: 1 }, fields: ['generalCondition'] });
     expect(await rowCounts(t.db)).toEqual(before);
   });
 

@@ -79,7 +79,7 @@ const fuseRows: Array<{ standard: string; ratingA: number; at04: number; at5: nu
       [5, 9.93, 14.6],
       [16, 2.3, 3.9],
       [20, 1.93, 3.2],
-      [32, 0.91, 1.6],
+      [32, 0.87, 1.6], // 0.87: the pre-2018 0.91 × Cmin 0.95 [from memory], see reference-data.ts
       [45, 0.57, 1.0],
     ] as const
   ).map(([ratingA, at04, at5]) => ({ standard: 'BS 88-3', ratingA, at04, at5, source: 'BS 7671:2018 Tables 41.2 / 41.4, BS 88-3 (public reference pages)' })),

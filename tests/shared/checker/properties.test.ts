@@ -85,7 +85,7 @@ describe('checkBoard properties', () => {
     fc.assert(
       fc.property(boardArbitrary, (input) => {
         for (const f of checkBoard(input)) {
-          expect(['error', 'warning', 'note']).toContain(f.severity);
+          expect(['error', 'warning', 'note', 'todo']).toContain(f.severity);
           expect(f.code).toMatch(/^[a-z0-9]+(-[a-z0-9]+)*$/);
           expect(f.message.length).toBeGreaterThan(0);
         }

@@ -1,7 +1,7 @@
 import type { Finding } from '../../../../shared/schemas/findings.ts';
 import { useRecord } from './record-context.tsx';
 
-const severityWords = { error: '✗ error', warning: '! warning', note: 'i note' } as const;
+const severityWords = { error: '✗ error', warning: '! warning', note: 'i note', todo: '… to do' } as const;
 
 /**
  * The job's own findings (the checker's job rules, as the server last answered), each with the
