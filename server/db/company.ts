@@ -33,3 +33,14 @@ export async function saveCompany(db: DB, fields: CompanyFields): Promise<Compan
 function stripUndefined<T extends object>(value: T): Partial<T> {
   return Object.fromEntries(Object.entries(value).filter(([, v]) => v !== undefined)) as Partial<T>;
 }
+
+/** Sets (or clears, with null) the logo's file id; the text details are kept as they are. */
+export async function saveCompanyLogo(db: DB, logoFileId: number | null): Promise<Company> {
+  const company: Company = { ...(await loadCompany(db)), logoFileId };
+  await db
+    .insertInto('app_settings')
+    .values({ key: companyKey, value: JSON.stringify(company) })
+    .onConflict((oc) => oc.column('key').doUpdateSet({ value: JSON.stringify(company) }))
+    .execute();
+  return company;
+}

@@ -39,8 +39,13 @@ export function AppLayout() {
           <NavLink to="/jobs" className={navLinkClass}>
             Jobs
           </NavLink>
+          {(me?.role === 'reviewer' || me?.role === 'admin') && (
+            <NavLink to="/review" className={navLinkClass}>
+              Review
+            </NavLink>
+          )}
           {me?.role === 'admin' && (
-            <NavLink to="/admin/users" className={navLinkClass}>
+            <NavLink to="/admin" className={navLinkClass}>
               Admin
             </NavLink>
           )}

@@ -1,10 +1,15 @@
-import { useNavigate } from 'react-router-dom';
+import { useNavigate, useParams } from 'react-router-dom';
+import { useMe } from '../features/auth/api/get-me.ts';
 import { useJobs } from '../features/jobs/api/get-jobs.ts';
 import { EditJobForm } from '../features/jobs/components/forms/edit-job-form.tsx';
 import { NewBoardForm } from '../features/jobs/components/forms/new-board-form.tsx';
 import { SiteForm } from '../features/jobs/components/forms/site-form.tsx';
 import { JobRecordPage } from '../features/job-record/components/job-record-page.tsx';
+import { SendPanel } from '../features/mail/components/send-panel.tsx';
+import { SigningPanel } from '../features/signing/components/signing-panel.tsx';
 import type { JobScreenAction } from '../features/job-record/commands.ts';
+import { IssuePanel } from '../features/issue/components/issue-panel.tsx';
+import { JobStatePanel } from '../features/review/components/job-state-panel.tsx';
 import type { JobDetail } from '../../shared/schemas/jobs.ts';
 
 /**
@@ -13,7 +18,22 @@ import type { JobDetail } from '../../shared/schemas/jobs.ts';
  * features add (review, signing, issue, mail) — place them in `panels`.
  */
 export function JobRoute() {
-  return <JobRecordPage actions={jobActions} />;
+  return <JobRecordPage actions={jobActions} panels={<JobPanels />} />;
+}
+
+/** The job's state and gate, signing, issuing and sending to the client, beside the record. */
+function JobPanels() {
+  const jobId = Number(useParams().jobId);
+  const { data: me } = useMe();
+  if (!me || !Number.isSafeInteger(jobId) || jobId <= 0) return null;
+  return (
+    <>
+      <JobStatePanel jobId={jobId} role={me.role} />
+      <SigningPanel jobId={jobId} person={{ role: me.role, name: me.name }} />
+      <IssuePanel jobId={jobId} role={me.role} />
+      <SendPanel jobId={jobId} personRole={me.role} />
+    </>
+  );
 }
 
 function NewBoardAction({ detail }: { detail: JobDetail }) {

@@ -1,7 +1,9 @@
 import { Navigate, RouterProvider, createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { CompanyPage } from '../features/admin/components/company-page.tsx';
 import { UsersPage } from '../features/admin/components/users-page.tsx';
 import { SignInPage } from '../features/auth/components/sign-in-page.tsx';
 import { JobsPage } from '../features/jobs/components/jobs-page.tsx';
+import { AdminLayout } from './admin-layout.tsx';
 import { AppLayout } from './app-layout.tsx';
 import { FullPageMessage } from './full-page-message.tsx';
 import { NotFoundPage } from './not-found-page.tsx';
@@ -49,12 +51,38 @@ export const appRoutes: RouteObject[] = [
             },
           },
           {
-            path: 'admin/users',
+            path: 'review',
+            lazy: async () => {
+              const { ReviewQueueRoute } = await import('./review-routes.tsx');
+              return { Component: ReviewQueueRoute };
+            },
+          },
+          {
+            path: 'review/:jobId',
+            lazy: async () => {
+              const { ReviewJobRoute } = await import('./review-routes.tsx');
+              return { Component: ReviewJobRoute };
+            },
+          },
+          {
+            path: 'admin',
             element: (
-              <RequireRole roles={['admin']} refusal="Only an admin can manage people.">
-                <UsersPage />
+              <RequireRole roles={['admin']} refusal="Only an admin can manage people, the company's details and the mailbox.">
+                <AdminLayout />
               </RequireRole>
             ),
+            children: [
+              { index: true, element: <Navigate to="/admin/users" replace /> },
+              { path: 'users', element: <UsersPage /> },
+              { path: 'company', element: <CompanyPage /> },
+              {
+                path: 'mailbox',
+                lazy: async () => {
+                  const { MailboxPage } = await import('../features/mail/components/mailbox-page.tsx');
+                  return { Component: MailboxPage };
+                },
+              },
+            ],
           },
           { path: '*', element: <NotFoundPage /> },
         ],

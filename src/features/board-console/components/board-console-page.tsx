@@ -7,6 +7,7 @@ import { boardToCheckInput, type CheckCircuit } from '../../../../shared/schemas
 import type { Finding } from '../../../../shared/schemas/findings.ts';
 import { createBoardChecker } from '../../../../shared/checker/index.ts';
 import { ApiError, apiGet } from '../../../lib/api-client.ts';
+import { useLockReasons } from '../api/board-gate.ts';
 import { useBoardSync } from '../sync/use-board-sync.ts';
 import { BoardConsole } from './board-console.tsx';
 
@@ -75,6 +76,7 @@ function BoardConsoleLoader({ boardId }: { boardId: number }) {
   const sync = useBoardSync(boardId);
   const me = useSignedInPerson();
   const findings = useFindings(sync.detail);
+  const lockReasons = useLockReasons(sync.detail, findings);
 
   if (!sync.detail) {
     return (
@@ -92,5 +94,5 @@ function BoardConsoleLoader({ boardId }: { boardId: number }) {
       </div>
     );
   }
-  return <BoardConsole sync={sync} detail={sync.detail} findings={findings} role={me.data?.role ?? null} />;
+  return <BoardConsole sync={sync} detail={sync.detail} findings={findings} role={me.data?.role ?? null} lockReasons={lockReasons} />;
 }
