@@ -10,6 +10,7 @@ import type { DB } from './db/database.ts';
 import { findUserById } from './db/users.ts';
 import { apiNotFound, errorHandler } from './middleware/error-handler.ts';
 import { requireUser, type UserLoader } from './middleware/auth.ts';
+import { parseAllowedOrigins, sameOriginOnly } from './middleware/same-origin.ts';
 import { Presence } from './presence.ts';
 import { authRoutes } from './routes/auth.ts';
 import { boardRoutes } from './routes/boards.ts';
@@ -36,6 +37,11 @@ export interface AppOptions {
   signInAttemptsPerMinute?: number;
   /** Presence window; tests shorten it. */
   presence?: Presence;
+  /**
+   * Origins allowed to send changes besides the app's own (a reverse proxy's public address).
+   * Defaults to BOARDWALK_ALLOWED_ORIGINS (comma-separated).
+   */
+  allowedOrigins?: readonly string[];
 }
 
 /** Builds the Express app. It never listens: server/index.ts does, and tests use port 0. */
@@ -51,6 +57,8 @@ export function createApp(options: AppOptions): Express {
       contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } },
     }),
   );
+  // Before any body is read: a change sent by another site's page is refused unread.
+  app.use('/api', sameOriginOnly({ allowedOrigins: options.allowedOrigins ?? parseAllowedOrigins(process.env.BOARDWALK_ALLOWED_ORIGINS) }));
   app.use(express.json({ limit: '2mb' }));
   app.use(
     session({
