@@ -20,10 +20,44 @@ import { userRoutes } from './routes/users.ts';
 
 const SqliteStore = makeSqliteStore(session);
 
-/** The session store's expiry sweep should not keep a process (a script, a test) alive. */
+/** How often a session's stored expiry is renewed at most (every request renews the cookie). */
+export const sessionRenewalMs = 60_000;
+
+/**
+ * The SQLite session store, with two changes: its expiry sweep does not keep a process (a script,
+ * a test) alive, and a session's expiry is written at most once a minute rather than on every
+ * request (the live feed polls every second). A session may thus end up to a minute before its
+ * cookie says, out of 12 hours.
+ */
 class QuietSqliteStore extends SqliteStore {
+  private readonly renewedAt = new Map<string, number>();
+
   override startInterval(): void {
     setInterval(() => this.clearExpiredSessions(), 15 * 60_000).unref();
+  }
+
+  override set(sid: string, sess: session.SessionData, cb?: (err?: unknown) => void): void {
+    this.renewedAt.set(sid, Date.now());
+    super.set(sid, sess, cb);
+  }
+
+  override touch(sid: string, sess: session.SessionData, cb?: (err?: unknown) => void): void {
+    const now = Date.now();
+    const last = this.renewedAt.get(sid);
+    if (last !== undefined && now - last < sessionRenewalMs) {
+      cb?.();
+      return;
+    }
+    if (this.renewedAt.size > 10_000) {
+      for (const [id, at] of this.renewedAt) if (now - at >= sessionRenewalMs) this.renewedAt.delete(id);
+    }
+    this.renewedAt.set(sid, now);
+    super.touch(sid, sess, cb);
+  }
+
+  override destroy(sid: string, cb?: (err?: unknown) => void): void {
+    this.renewedAt.delete(sid);
+    super.destroy(sid, cb);
   }
 }
 
@@ -74,7 +108,13 @@ export function createApp(options: AppOptions): Express {
 
   const loadUser: UserLoader = async (id) => {
     const row = await findUserById(db, id);
-    return row && { id: row.id, email: row.email, name: row.name, role: row.role };
+    return (
+      row && {
+        user: { id: row.id, email: row.email, name: row.name, role: row.role },
+        sessionGeneration: row.session_generation,
+        deactivated: row.deactivated_at !== null,
+      }
+    );
   };
   const presence = options.presence ?? new Presence();
 
