@@ -1,7 +1,5 @@
 import { Navigate, RouterProvider, createBrowserRouter, type RouteObject } from 'react-router-dom';
-import { UsersPage } from '../features/admin/components/users-page.tsx';
 import { SignInPage } from '../features/auth/components/sign-in-page.tsx';
-import { JobsPage } from '../features/jobs/components/jobs-page.tsx';
 import { AppLayout } from './app-layout.tsx';
 import { FullPageMessage } from './full-page-message.tsx';
 import { NotFoundPage } from './not-found-page.tsx';
@@ -11,8 +9,9 @@ import { RouteErrorPage } from './route-error-page.tsx';
 
 /**
  * Every route of the app. Signed-out people reach only /sign-in; the rest sits behind RequireAuth
- * inside the app layout. The board console (the largest part of the client: grid, palette,
- * checker) is loaded when a board is first opened, so sign-in and the jobs list start quickly.
+ * inside the app layout. Each page behind sign-in is its own chunk, loaded when first opened: the
+ * sign-in page loads only itself and the frame, the jobs list does not load the board console (the
+ * largest part of the client: grid, palette, checker, sync engine), and only admins load admin.
  */
 export const appRoutes: RouteObject[] = [
   {
@@ -32,7 +31,13 @@ export const appRoutes: RouteObject[] = [
         ),
         children: [
           { index: true, element: <Navigate to="/jobs" replace /> },
-          { path: 'jobs', element: <JobsPage /> },
+          {
+            path: 'jobs',
+            lazy: async () => {
+              const { JobsPage } = await import('../features/jobs/components/jobs-page.tsx');
+              return { Component: JobsPage };
+            },
+          },
           {
             path: 'boards/:boardId',
             lazy: async () => {
@@ -42,11 +47,16 @@ export const appRoutes: RouteObject[] = [
           },
           {
             path: 'admin/users',
-            element: (
-              <RequireRole roles={['admin']} refusal="Only an admin can manage people.">
-                <UsersPage />
-              </RequireRole>
-            ),
+            lazy: async () => {
+              const { UsersPage } = await import('../features/admin/components/users-page.tsx');
+              return {
+                Component: () => (
+                  <RequireRole roles={['admin']} refusal="Only an admin can manage people.">
+                    <UsersPage />
+                  </RequireRole>
+                ),
+              };
+            },
           },
           { path: '*', element: <NotFoundPage /> },
         ],
