@@ -2,7 +2,6 @@ import { Navigate, RouterProvider, createBrowserRouter, type RouteObject } from 
 import { CompanyPage } from '../features/admin/components/company-page.tsx';
 import { UsersPage } from '../features/admin/components/users-page.tsx';
 import { SignInPage } from '../features/auth/components/sign-in-page.tsx';
-import { JobsPage } from '../features/jobs/components/jobs-page.tsx';
 import { AdminLayout } from './admin-layout.tsx';
 import { AppLayout } from './app-layout.tsx';
 import { FullPageMessage } from './full-page-message.tsx';
@@ -35,7 +34,13 @@ export const appRoutes: RouteObject[] = [
         ),
         children: [
           { index: true, element: <Navigate to="/jobs" replace /> },
-          { path: 'jobs', element: <JobsPage /> },
+          {
+            path: 'jobs',
+            lazy: async () => {
+              const { JobsPage } = await import('../features/jobs/components/jobs-page.tsx');
+              return { Component: JobsPage };
+            },
+          },
           {
             path: 'boards/:boardId',
             lazy: async () => {
