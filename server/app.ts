@@ -26,6 +26,8 @@ import { jobRoutes } from './routes/jobs.ts';
 import { mailboxRoutes, mailRoutes } from './routes/mail.ts';
 import { reviewRoutes } from './routes/review.ts';
 import { signatureRoutes } from './routes/signatures.ts';
+import { importRoutes } from './routes/imports.ts';
+import { photoRoutes } from './routes/photos.ts';
 import { siteRoutes } from './routes/sites.ts';
 import { userRoutes } from './routes/users.ts';
 
@@ -169,6 +171,8 @@ export function createApp(options: AppOptions): Express {
   api.use('/admin/mailbox', mailboxRoutes(path.join(dataDir, 'mailbox'), options.localMailPort ?? null));
   api.use('/', issueRoutes(db, { dataDir }));
   api.use('/', exportRoutes(db));
+  api.use('/', importRoutes(db));
+  api.use('/', photoRoutes(db, files));
   api.use(apiNotFound);
   app.use('/api', api);
 
