@@ -232,7 +232,7 @@ function historyPopup() {
 }
 
 async function bundleBytes(base: string) {
-  console.log('\n4. JavaScript per page, as sent (brotli)');
+  console.log('\n4. JavaScript per page, as sent to a browser that accepts brotli and gzip');
   const manifest = JSON.parse(fs.readFileSync('dist/.vite/manifest.json', 'utf8')) as Record<string, { file: string; imports?: string[]; isEntry?: boolean }>;
   const closure = (keys: string[]) => {
     const seen = new Set<string>();
