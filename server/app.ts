@@ -12,10 +12,19 @@ import { findUserById } from './db/users.ts';
 import { apiNotFound, errorHandler } from './middleware/error-handler.ts';
 import { requireUser, type UserLoader } from './middleware/auth.ts';
 import { parseAllowedOrigins, sameOriginOnly } from './middleware/same-origin.ts';
+import { FileStore } from './files.ts';
+import { MailSender } from './mail/mail-sender.ts';
 import { Presence } from './presence.ts';
 import { authRoutes } from './routes/auth.ts';
 import { boardRoutes } from './routes/boards.ts';
 import { checkRoutes } from './routes/check.ts';
+import { companyRoutes } from './routes/company.ts';
+import { exportRoutes } from './routes/exports.ts';
+import { fileRoutes } from './routes/files.ts';
+import { issueRoutes } from './routes/issues.ts';
+import { jobRoutes } from './routes/jobs.ts';
+import { mailboxRoutes, mailRoutes } from './routes/mail.ts';
+import { signatureRoutes } from './routes/signatures.ts';
 import { siteRoutes } from './routes/sites.ts';
 import { userRoutes } from './routes/users.ts';
 
@@ -77,6 +86,23 @@ export interface AppOptions {
    * Defaults to BOARDWALK_ALLOWED_ORIGINS (comma-separated).
    */
   allowedOrigins?: readonly string[];
+  /** Folder for stored files (`files/…`) and the local mailbox (`mailbox/`); default `data/`. */
+  dataDir?: string;
+  /**
+   * Where e-mail goes: `smtp://host:port` (SMTP_URL in production, or the local mail server's URL).
+   * Without it nothing can be sent, and each send fails saying so.
+   */
+  smtpUrl?: string;
+  /** The From address of e-mail (MAIL_FROM); defaults to the company's e-mail. */
+  mailFrom?: string;
+  /** The local mail server's port when it is the one receiving mail (shown on the mailbox page). */
+  localMailPort?: number | null;
+}
+
+/** What createApp made that the process around it may need (index.ts resumes the mail sender). */
+export interface AppServices {
+  files: FileStore;
+  mailSender: MailSender;
 }
 
 /** Builds the Express app. It never listens: server/index.ts does, and tests use port 0. */
@@ -120,6 +146,11 @@ export function createApp(options: AppOptions): Express {
     );
   };
   const presence = options.presence ?? new Presence();
+  const dataDir = path.resolve(options.dataDir ?? 'data');
+  const files = new FileStore(dataDir);
+  const mailSender = new MailSender(db, files, { smtpUrl: options.smtpUrl, from: options.mailFrom });
+  const services: AppServices = { files, mailSender };
+  app.locals.services = services;
 
   const api = express.Router();
   api.use('/auth', authRoutes(db, loadUser, { signInAttemptsPerMinute: options.signInAttemptsPerMinute ?? 20 }));
@@ -127,7 +158,15 @@ export function createApp(options: AppOptions): Express {
   api.use('/users', userRoutes(db));
   api.use('/check', checkRoutes());
   api.use('/boards', boardRoutes(db, presence));
+  api.use('/jobs', jobRoutes(db));
+  api.use('/company', companyRoutes(db, files));
   api.use('/', siteRoutes(db));
+  api.use('/files', fileRoutes(db, files));
+  api.use('/', signatureRoutes(db, files));
+  api.use('/', mailRoutes(db, mailSender));
+  api.use('/admin/mailbox', mailboxRoutes(path.join(dataDir, 'mailbox'), options.localMailPort ?? null));
+  api.use('/', issueRoutes(db, { dataDir }));
+  api.use('/', exportRoutes(db));
   api.use(apiNotFound);
   app.use('/api', api);
 
@@ -151,6 +190,11 @@ export function createApp(options: AppOptions): Express {
 
   app.use(errorHandler);
   return app;
+}
+
+/** The services createApp made (file store, mail sender). */
+export function appServices(app: Express): AppServices {
+  return app.locals.services as AppServices;
 }
 
 /** A session secret kept in the database, made once, so sign-ins survive a restart. */

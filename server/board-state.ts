@@ -1,9 +1,9 @@
 import { createBoardChecker } from '../shared/checker/index.ts';
-import type { Board, Circuit } from '../shared/schemas/boards.ts';
+import type { Board, Circuit, PreviousReadings } from '../shared/schemas/boards.ts';
 import { boardToCheckInput, type CheckCircuit } from '../shared/schemas/check.ts';
 import type { Finding } from '../shared/schemas/findings.ts';
 import type { Job, Site } from '../shared/schemas/sites.ts';
-import { circuitOrder, findBoardRow, loadCircuits } from './db/boards.ts';
+import { circuitOrder, findBoardRow, loadCircuits, loadPreviousReadings } from './db/boards.ts';
 import type { DB } from './db/database.ts';
 import { toBoard, toJob, toSite } from './db/mappers.ts';
 import { storedValueFindings, withPosition } from './db/served-circuits.ts';
@@ -23,6 +23,9 @@ export interface BoardState {
   job: Job;
   /** In board order. Each circuit object is replaced, never mutated, when it changes. */
   circuits: Circuit[];
+  /** Last time's readings (fixed: they belong to an earlier job), read again when circuits are added or removed. */
+  previousReadings: PreviousReadings[];
+  previousById: Map<number, PreviousReadings>;
   byId: Map<number, Circuit>;
   boardRowKey: string;
   siteRowKey: string;
@@ -74,7 +77,8 @@ export class BoardStates {
     const inputs = state.circuits.map((circuit) => {
       let input = state.inputs.get(circuit);
       if (!input) {
-        input = boardToCheckInput({ board: state.board, site: state.site, circuits: [circuit] }).circuits[0]!;
+        const previous = state.previousById.get(circuit.id);
+        input = boardToCheckInput({ board: state.board, site: state.site, circuits: [circuit], previousReadings: previous ? [previous] : undefined }).circuits[0]!;
         state.inputs.set(circuit, input);
       }
       return input;
@@ -141,6 +145,7 @@ export class BoardStates {
     const jobRow = await db.selectFrom('jobs').selectAll().where('id', '=', boardRow.job_id).executeTakeFirstOrThrow();
     const siteRow = await db.selectFrom('sites').selectAll().where('id', '=', jobRow.site_id).executeTakeFirstOrThrow();
     const circuits = await loadCircuits(db, boardRow.id);
+    const previousReadings = await loadPreviousReadings(db, boardRow.id);
     return {
       boardId: boardRow.id,
       cursor,
@@ -149,6 +154,8 @@ export class BoardStates {
       job: toJob(jobRow),
       circuits,
       byId: new Map(circuits.map((c) => [c.id, c])),
+      previousReadings,
+      previousById: new Map(previousReadings.map((p) => [p.circuitId, p])),
       boardRowKey: rowKey(boardRow),
       siteRowKey: rowKey(siteRow),
       inputs: new WeakMap(),
@@ -200,6 +207,9 @@ export class BoardStates {
       return;
     }
     const order = await circuitOrder(db, state.boardId);
+    state.previousReadings = await loadPreviousReadings(db, state.boardId);
+    state.previousById = new Map(state.previousReadings.map((p) => [p.circuitId, p]));
+    state.inputs = new WeakMap();
     const present = new Set(order);
     const fresh = await loadCircuits(db, state.boardId, [...changed].filter((id) => present.has(id)));
     for (const circuit of fresh) state.byId.set(circuit.id, circuit);

@@ -7,6 +7,8 @@ const statusByCode: Record<ErrorCode, number> = {
   not_found: 404,
   conflict: 409,
   locked: 423,
+  too_large: 413,
+  unsupported_type: 415,
   too_many_requests: 429,
   internal: 500,
 };

@@ -68,6 +68,19 @@ export interface JobHistoryTable {
   version: number | null;
 }
 
+/** Append-only history of a site's details: one row per changed field, values as JSON text. */
+export interface SiteHistoryTable {
+  id: Generated<number>;
+  site_id: number;
+  field: string | null;
+  action: string;
+  old_text: string | null;
+  new_text: string | null;
+  user_id: number | null;
+  at: string;
+  version: number | null;
+}
+
 export interface BoardTable {
   id: Generated<number>;
   job_id: number;
@@ -100,6 +113,8 @@ export interface CircuitTable {
   live_csa_mm2: number | null;
   cpc_csa_mm2: number | null;
   max_disconnection_s: number | null;
+  /** Length of the circuit cable (m), when known (migration 2026-12-02T0220). */
+  cable_length_m: number | null;
   device_standard: Generated<string>;
   device_type: Generated<string>;
   rating_a: number | null;
@@ -218,6 +233,7 @@ export interface AppSettingTable {
 export interface Database {
   users: UserTable;
   sites: SiteTable;
+  site_history: SiteHistoryTable;
   jobs: JobTable;
   job_sections: JobSectionTable;
   job_history: JobHistoryTable;
@@ -236,6 +252,7 @@ export interface Database {
 export type UserRow = Selectable<UserTable>;
 export type NewUserRow = Insertable<UserTable>;
 export type SiteRow = Selectable<SiteTable>;
+export type SiteHistoryRow = Selectable<SiteHistoryTable>;
 export type JobRow = Selectable<JobTable>;
 export type JobSectionRow = Selectable<JobSectionTable>;
 export type JobHistoryRow = Selectable<JobHistoryTable>;

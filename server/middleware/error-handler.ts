@@ -3,7 +3,9 @@ import { ZodError } from 'zod';
 import { HttpError } from '../http-error.ts';
 
 function describeIssue(issue: ZodError['issues'][number]): { path: string; message: string } {
-  return { path: issue.path.map(String).join('.'), message: issue.message };
+  // A schema without its own words for a missing field: say so plainly rather than in zod's terms.
+  const missing = issue.code === 'invalid_type' && /received undefined$/.test(issue.message);
+  return { path: issue.path.map(String).join('.'), message: missing ? 'This is required.' : issue.message };
 }
 
 /** Answers 404 for an /api path no route took. */

@@ -13,7 +13,10 @@ export interface UploadRoute {
 }
 
 /** The upload routes of the app (see DEVELOPERS.md, "Cross-site requests"). */
-export const uploadRoutes: UploadRoute[] = [];
+export const uploadRoutes: UploadRoute[] = [
+  { method: 'POST', path: /^\/api\/company\/logo$/ },
+  { method: 'POST', path: /^\/api\/jobs\/\d+\/signatures$/ },
+];
 
 export interface SameOriginOptions {
   /**

@@ -62,6 +62,7 @@ export function boardRoutes(db: DB, presence: Presence): Router {
       site: state.site,
       job: job ? toJob(job) : state.job,
       circuits: state.circuits,
+      previousReadings: state.previousReadings,
       findings: states.findings(state),
       cursor: state.cursor,
     });

@@ -1,41 +1,50 @@
 import { Router } from 'express';
+import { boardListResponseSchema } from '../../shared/schemas/boards.ts';
+import { createSiteBodySchema, siteListResponseSchema, siteResponseSchema, updateSiteBodySchema } from '../../shared/schemas/sites.ts';
 import type { DB } from '../db/database.ts';
-import { toJob, toSite } from '../db/mappers.ts';
-import { listBoardSummaries, listJobs, listSites } from '../db/sites.ts';
-import { HttpError } from '../http-error.ts';
+import { toSite } from '../db/mappers.ts';
+import { createSite, findSiteRow, listBoardSummaries, listSites, toBoardSummary, updateSite } from '../db/sites.ts';
+import { HttpError, notFound } from '../http-error.ts';
+import { currentUser } from '../middleware/auth.ts';
+import { idParam } from './params.ts';
 
+/** Sites, and the list of every board for the jobs page. Any signed-in person may create and edit sites. */
 export function siteRoutes(db: DB): Router {
   const router = Router();
 
   router.get('/sites', async (_req, res) => {
-    res.json({ sites: (await listSites(db)).map(toSite) });
+    res.json(siteListResponseSchema.parse({ sites: (await listSites(db)).map(toSite) }));
   });
 
-  router.get('/jobs', async (req, res) => {
-    const raw = req.query.siteId;
-    let siteId: number | undefined;
-    if (raw !== undefined) {
-      siteId = Number(raw);
-      if (!Number.isSafeInteger(siteId) || siteId <= 0) throw new HttpError('bad_request', 'siteId must be a positive whole number.');
-    }
-    res.json({ jobs: (await listJobs(db, siteId)).map(toJob) });
+  router.post('/sites', async (req, res) => {
+    const body = createSiteBodySchema.parse(req.body);
+    const user = currentUser(req);
+    const id = await db.transaction().execute((trx) => createSite(trx, body, user.id));
+    const site = await findSiteRow(db, id);
+    res.status(201).json(siteResponseSchema.parse({ site: site && toSite(site) }));
+  });
+
+  router.patch('/sites/:siteId', async (req, res) => {
+    const siteId = idParam(req, 'siteId');
+    const body = updateSiteBodySchema.parse(req.body);
+    const user = currentUser(req);
+    await db.transaction().execute(async (trx) => {
+      const site = await findSiteRow(trx, siteId);
+      if (!site) throw notFound(`Site ${siteId}`);
+      const result = await updateSite(trx, site, body.version, body.changes, user.id);
+      if (!result.ok) {
+        throw new HttpError('conflict', `Someone else changed ${result.conflictingFields.join(', ')} of this site meanwhile; look again and retry.`, {
+          current: toSite(site),
+          fields: result.conflictingFields,
+        });
+      }
+    });
+    const site = await findSiteRow(db, siteId);
+    res.json(siteResponseSchema.parse({ site: site && toSite(site) }));
   });
 
   router.get('/boards', async (_req, res) => {
-    const rows = await listBoardSummaries(db);
-    res.json({
-      boards: rows.map((r) => ({
-        id: r.id,
-        reference: r.reference,
-        location: r.location,
-        phases: r.phases,
-        state: r.state,
-        circuitCount: Number(r.circuit_count ?? 0),
-        cellsFilled: Number(r.cells_filled ?? 0),
-        site: { id: r.site_id, client: r.site_client, address: r.site_address },
-        job: { id: r.job_id, kind: r.job_kind, reference: r.job_reference },
-      })),
-    });
+    res.json(boardListResponseSchema.parse({ boards: (await listBoardSummaries(db)).map(toBoardSummary) }));
   });
 
   return router;

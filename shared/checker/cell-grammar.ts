@@ -65,8 +65,11 @@ export const cellGrammars: Readonly<Record<ReadingKey, CellGrammar>> = {
   irLiveLive: reading('IR L-L', 'MΩ', 2000, MEGOHM_WORDS),
   irLiveEarth: reading('IR L-E', 'MΩ', 2000, MEGOHM_WORDS),
   polarity: { label: 'Polarity', unit: null, mode: 'pass-fail', min: 0, max: 0, overRange: false, unitWords: [] },
-  zs: reading('Zs', 'Ω', 200, OHM_WORDS),
+  // On TT the earth electrode is in the loop: hundreds of ohms are normal (a 30 mA RCD allows up to
+  // 1667 Ω, 50 V / IΔn), so the ceiling is the meters' range, not a TN value.
+  zs: reading('Zs', 'Ω', 2000, OHM_WORDS),
   rcdTimeMs: reading('RCD time', 'ms', 2000, MS_WORDS),
+  rcdTime5Ms: reading('RCD time at 5 × IΔn', 'ms', 2000, MS_WORDS),
   rcdButton: { label: 'RCD button', unit: null, mode: 'pass-fail', min: 0, max: 0, overRange: false, unitWords: [] },
   afddButton: { label: 'AFDD button', unit: null, mode: 'pass-fail', min: 0, max: 0, overRange: false, unitWords: [] },
 };
@@ -133,6 +136,10 @@ export function parseWithGrammar(grammar: CellGrammar, text: string): ParsedCell
   // Fast path: a number or ">N" (digits, point, comma, '>', '≥').
   if ((first >= 48 && first <= 57) || first === 46 || first === 44 || first === 62 || first === 0x2265) {
     return parseNumber(grammar, t);
+  }
+  // A lone dash is how paper schedules often mark "not done": say what to write instead.
+  if (t.length === 1 && (first === 45 || first === 0x2212 || first === 0x2013 || first === 0x2014)) {
+    return invalid('A dash is not a reading: write N/A if the test does not apply (or LIM, with its reason, if it could not be done).', 'format');
   }
   const word = WORDS.get(t) ?? WORDS.get(t.toLowerCase());
   if (word === 'na') return NA;

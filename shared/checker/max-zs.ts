@@ -7,6 +7,7 @@ import { deviceShortName, normaliseBreakerType, normaliseDeviceStandard, type De
 import {
   BREAKER_TRIP_SOURCE,
   breakerTripMultiples,
+  RCBO_TRIP_SOURCE,
   C_MIN,
   fuseTables,
   RCD_TT_SOURCE,
@@ -120,7 +121,8 @@ function breakerMaxZs(family: 'bs-en-60898' | 'bs-en-61009', typeText: string, r
   const denominator = toDecimal(iaA)!;
   const limitOhm = divideRoundHalfUp(numerator, denominator, 2);
   const table = time >= 5 ? 'BS 7671:2018 Table 41.4' : 'BS 7671:2018 Table 41.3';
-  const source = `${table}: Cmin·U0/Ia = 0.95 × ${u0} V / ${iaA} A (Ia = ${multiple} In, ${BREAKER_TRIP_SOURCE}), rounded half-up to 2 decimals`;
+  const trip = family === 'bs-en-61009' ? RCBO_TRIP_SOURCE : BREAKER_TRIP_SOURCE;
+  const source = `${table}: Cmin·U0/Ia = 0.95 × ${u0} V / ${iaA} A (Ia = ${multiple} In, ${trip}), rounded half-up to 2 decimals`;
   return { ok: true, limitOhm, source, device: deviceShortName(family, type, ratingA), family };
 }
 

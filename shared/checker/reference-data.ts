@@ -124,6 +124,8 @@ export const breakerTripMultiples = {
   D: { instantaneous: 20, fiveSeconds: 10 },
 } as const;
 export const BREAKER_TRIP_SOURCE = 'BS EN 60898-1 instantaneous trip ranges (B 3–5, C 5–10, D 10–20 In)';
+/** RCBOs take the same trip ranges from their own standard. */
+export const RCBO_TRIP_SOURCE = 'BS EN 61009-1 instantaneous trip ranges (B 3–5, C 5–10, D 10–20 In)';
 
 /** The rounding the tables use for the breaker limits. */
 export const TABLE_ROUNDING = 'rounded half-up to 2 decimals';
@@ -174,10 +176,13 @@ export const fuseTables: Readonly<Record<FuseFamily, FuseTable>> = {
       { ratingA: 5, maxZs04: 9.93, maxZs5: 14.6 },
       { ratingA: 16, maxZs04: 2.3, maxZs5: 3.9 },
       { ratingA: 20, maxZs04: 1.93, maxZs5: 3.2 },
-      { ratingA: 32, maxZs04: 0.91, maxZs5: 1.6 },
+      // 32 A at 0.4 s: 0.87, not 0.91. 0.91 is the pre-2018 value (a trade article of 2015 gives
+      // 0.72 Ω as its 0.8 × limit), and the 2018 edition multiplied every fuse value by Cmin 0.95:
+      // 0.91 × 0.95 = 0.86–0.87; 0.87 is the value remembered from the 2018 table [from memory].
+      { ratingA: 32, maxZs04: 0.87, maxZs5: 1.6 },
       { ratingA: 45, maxZs04: 0.57, maxZs5: 1.0 },
     ],
-    source04: `BS 7671:2018 Table 41.2 (BS 88-3; ${FUSE_NOTE})`,
+    source04: `BS 7671:2018 Table 41.2 (BS 88-3; ${FUSE_NOTE}; 32 A rechecked as the 2008 value × 0.95 [from memory])`,
     source5: `BS 7671:2018 Table 41.4 (BS 88-3; ${FUSE_NOTE})`,
   },
   'bs-3036': {
@@ -209,7 +214,15 @@ export const fuseTables: Readonly<Record<FuseFamily, FuseTable>> = {
  * 300 mA → 167 Ω, 500 mA → 100 Ω).
  */
 export const RCD_TT_TOUCH_VOLTAGE_V = 50;
-export const RCD_TT_SOURCE = 'BS 7671:2018 Table 41.5 / 411.5.3 (Zs ≤ 50 V / IΔn) [from memory]';
+export const RCD_TT_SOURCE = 'BS 7671:2018 411.5.3 and Table 41.5 (Zs ≤ 50 V / IΔn) [from memory]';
+
+/**
+ * On TT a loop impedance of hundreds of ohms is normal (the earth electrode is in the loop); above
+ * 200 Ω the electrode's resistance may not be stable (soil drying out or freezing). A remark, not a
+ * fault.
+ */
+export const TT_ELECTRODE_STABLE_UP_TO_OHM = 200;
+export const TT_ELECTRODE_STABLE_SOURCE = 'BS 7671:2018 note to Table 41.5: above 200 Ω an electrode may not be stable [from memory]';
 
 /** Measured Zs (at room temperature) against a tabulated maximum: measured ≤ 0.8 × tabulated. */
 export const ZS_RULE_OF_THUMB_FACTOR = 0.8;
@@ -238,6 +251,27 @@ export const disconnectionTimes: readonly DisconnectionTimeRow[] = [
 ];
 
 /**
+ * Table 41.1 (a.c.) for final circuits up to 63 A with socket-outlets or 32 A fixed, by U0: the
+ * time shortens as the voltage rises. Distribution circuits keep 5 s (TN) and 1 s (TT) at any U0
+ * (411.3.2.3, 411.3.2.4).
+ */
+export interface FinalCircuitTimeRow {
+  /** The row applies for U0 above `aboveV` up to and including `upToV`. */
+  aboveV: number;
+  upToV: number;
+  tnSeconds: number;
+  ttSeconds: number;
+  source: string;
+}
+
+export const finalCircuitTimesByU0: readonly FinalCircuitTimeRow[] = [
+  { aboveV: 50, upToV: 120, tnSeconds: 0.8, ttSeconds: 0.3, source: `${TABLE_41_1_SOURCE} (50 V < U0 ≤ 120 V) [from memory]` },
+  { aboveV: 120, upToV: 230, tnSeconds: 0.4, ttSeconds: 0.2, source: `${TABLE_41_1_SOURCE} (120 V < U0 ≤ 230 V)` },
+  { aboveV: 230, upToV: 400, tnSeconds: 0.2, ttSeconds: 0.07, source: `${TABLE_41_1_SOURCE} (230 V < U0 ≤ 400 V)` },
+  { aboveV: 400, upToV: Number.POSITIVE_INFINITY, tnSeconds: 0.1, ttSeconds: 0.04, source: `${TABLE_41_1_SOURCE} (U0 > 400 V) [from memory]` },
+];
+
+/**
  * The disconnection time to assume when the schedule does not give one. A final circuit up to 63 A
  * takes the short time (the socket-outlet limit, which is the stricter reading when it is not known
  * whether the circuit feeds sockets); a distribution circuit or a larger final circuit the long one.
@@ -246,11 +280,18 @@ export function defaultDisconnectionTimeS(params: {
   earthing: 'TN-S' | 'TN-C-S' | 'TT';
   kind: 'ring' | 'radial' | 'spur' | 'distribution';
   ratingA: number | null;
+  /** Nominal voltage to earth (V); 230 when omitted. The final-circuit time follows it. */
+  u0?: number | null;
 }): { seconds: number; source: string } {
   const tt = params.earthing === 'TT';
   const longTime = params.kind === 'distribution' || (params.ratingA !== null && params.ratingA > 63);
-  const row = disconnectionTimes.find((r) => r.earthing === (tt ? 'TT' : 'TN') && (r.seconds >= 1) === longTime)!;
-  return { seconds: row.seconds, source: row.source };
+  if (longTime) {
+    const row = disconnectionTimes.find((r) => r.earthing === (tt ? 'TT' : 'TN') && r.seconds >= 1)!;
+    return { seconds: row.seconds, source: row.source };
+  }
+  const u0 = params.u0 ?? UK_U0;
+  const row = finalCircuitTimesByU0.find((r) => u0 > r.aboveV && u0 <= r.upToV) ?? finalCircuitTimesByU0[0]!;
+  return { seconds: tt ? row.ttSeconds : row.tnSeconds, source: row.source };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -272,6 +313,14 @@ export const insulationMinima: readonly InsulationMinimum[] = [
   { testVoltageV: 1000, minMegohm: 1.0, circuits: 'above 500 V', source: TABLE_64_SOURCE },
 ];
 
+/**
+ * A 250 V DC test on a circuit of up to 500 V, made because surge protection or other equipment
+ * could not be disconnected, still needs at least 1.0 MΩ; only SELV and PELV circuits take 0.5 MΩ.
+ */
+export const REDUCED_TEST_VOLTAGE_MINIMUM_MEGOHM = 1.0;
+export const REDUCED_TEST_VOLTAGE_SOURCE =
+  'BS 7671:2018 643.3.3: where SPDs or other equipment cannot be disconnected, a 250 V DC test may be used but the insulation resistance shall be at least 1 MΩ [from memory of the regulation\'s text; regulation number as remembered]';
+
 /** The Table 64 minimum for a test voltage, or why there is none. */
 export function insulationMinimum(testVoltageV: number): Lookup<InsulationMinimum> {
   const row = insulationMinima.find((r) => r.testVoltageV === testVoltageV);
@@ -287,7 +336,7 @@ export const IR_INVESTIGATE_SOURCE = 'investigate below 2 MΩ (IET Guidance Note
 // RCDs
 // ---------------------------------------------------------------------------------------------
 
-export const RCD_TIME_SOURCE = 'BS EN 61008-1 / 61009-1; BS 7671:2018+A2 643.7';
+export const RCD_TIME_SOURCE = 'BS EN 61008-1 / 61009-1; BS 7671:2018+A2 643.7 [regulation number from memory]';
 
 export interface RcdTimeLimit {
   /** Shortest operating time allowed (time-delayed types only), ms. */
@@ -308,6 +357,9 @@ export const rcdTimeLimits = {
 /** At 5 × IΔn, where recorded (additional protection): ≤ 40 ms. */
 export const rcdFiveTimesLimit = { maxMs: 40, source: 'BS EN 61008-1 / 61009-1' } as const;
 
+/** At 5 × IΔn, a time-delayed (S) type operates between 50 and 150 ms [from memory]. */
+export const rcdFiveTimesDelayedLimit = { minMs: 50, maxMs: 150, source: 'BS EN 61008-1 / 61009-1, time-delayed (S) type at 5 × IΔn: 50–150 ms [from memory]' } as const;
+
 /** Whether an RCD type as recorded ("S-AC", "S-A") is time-delayed. */
 export function isTimeDelayedRcd(rcdType: string): boolean {
   return rcdType.trim().toUpperCase().startsWith('S');
@@ -325,6 +377,50 @@ export function rcdTimeLimit(rcdType: string): RcdTimeLimit {
 export const BREAKING_CAPACITY_SOURCE = 'BS 7671:2018 434.5.1';
 
 export const POLARITY_SOURCE = 'BS 7671:2018 643.6 [from memory]';
+
+/**
+ * Additional protection by an RCD of IΔn ≤ 30 mA for socket-outlets rated up to 32 A
+ * (BS 7671:2018 411.3.3; a documented risk assessment may omit it outside dwellings).
+ */
+export const SOCKET_RCD_MAX_MA = 30;
+export const SOCKET_RCD_MAX_RATING_A = 32;
+export const SOCKET_RCD_SOURCE = 'BS 7671:2018 411.3.3: socket-outlets up to 32 A have additional protection by an RCD of IΔn ≤ 30 mA';
+
+/**
+ * Current-carrying capacity (A) of flat twin-and-earth cable (70 °C thermoplastic, copper), at
+ * 30 °C ambient, single circuit, in the most favourable common installation method: clipped direct
+ * (reference method C). Any other method carries less, so a device rating above this value is too
+ * large for the cable however it is installed; a rating at or below it may still be too large for
+ * the method actually used. [from memory]
+ */
+export const twinAndEarthCapacityMethodC: ReadonlyMap<number, number> = new Map([
+  [1, 16],
+  [1.5, 20],
+  [2.5, 27],
+  [4, 37],
+  [6, 47],
+  [10, 64],
+  [16, 85],
+]);
+export const TWIN_AND_EARTH_CAPACITY_SOURCE =
+  'BS 7671:2018 Appendix 4 Table 4D5 (flat twin-and-earth, 70 °C thermoplastic), reference method C clipped direct [from memory]; other methods carry less';
+/**
+ * A ring final on 2.5 mm² cable may be protected at 30 or 32 A when the cable carries at least 20 A
+ * (two legs share the load): Iz ≥ 0.67 × In [from memory: BS 7671:2018 433.1.204].
+ */
+export const RING_CAPACITY_FRACTION = 0.67;
+export const RING_CAPACITY_SOURCE = 'BS 7671:2018 433.1.204: ring final Iz ≥ 0.67 In [from memory]';
+
+/**
+ * Ipf at a board is the larger of the prospective short-circuit and earth fault currents, so it is
+ * at least the earth fault current U0 / Zdb. An Ipf far below that (under half) means one of the two
+ * was written wrongly (common practice).
+ */
+export const IPF_BELOW_EARTH_FAULT_FRACTION = 0.5;
+export const IPF_CONSISTENCY_SOURCE = 'Ipf ≥ prospective earth fault current U0 / Zdb (Ipf is the larger of PSCC and PEFC) — common practice';
+
+/** A measured Zs or RCD operating time of exactly 0 is not a measurement. */
+export const ZERO_READING_SOURCE = 'a loop impedance or an operating time is never exactly 0 — common practice';
 
 /** End-to-end line and neutral of a ring should agree this closely (Ω). */
 export const RING_R1_RN_TOLERANCE_OHM = 0.05;

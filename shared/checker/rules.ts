@@ -22,6 +22,24 @@ import {
   BREAKING_CAPACITY_SOURCE,
   conductorResistance,
   defaultDisconnectionTimeS,
+  IPF_BELOW_EARTH_FAULT_FRACTION,
+  isTimeDelayedRcd,
+  IPF_CONSISTENCY_SOURCE,
+  rcdFiveTimesDelayedLimit,
+  rcdFiveTimesLimit,
+  REDUCED_TEST_VOLTAGE_MINIMUM_MEGOHM,
+  REDUCED_TEST_VOLTAGE_SOURCE,
+  RING_CAPACITY_FRACTION,
+  RING_CAPACITY_SOURCE,
+  SOCKET_RCD_MAX_MA,
+  SOCKET_RCD_MAX_RATING_A,
+  SOCKET_RCD_SOURCE,
+  tradeTemperatureFactors,
+  TT_ELECTRODE_STABLE_SOURCE,
+  TT_ELECTRODE_STABLE_UP_TO_OHM,
+  TWIN_AND_EARTH_CAPACITY_SOURCE,
+  twinAndEarthCapacityMethodC,
+  ZERO_READING_SOURCE,
   IEC_60228_SOURCE,
   insulationMinimum,
   IR_INVESTIGATE_BELOW_MEGOHM,
@@ -38,6 +56,7 @@ import {
   ZS_RULE_OF_THUMB_FACTOR,
   ZS_RULE_OF_THUMB_SOURCE,
 } from './reference-data.ts';
+import { previousReadingCodes, pushPreviousReadingFindings } from './previous-readings.ts';
 import { correctRingReading } from './ring.ts';
 
 // ---------------------------------------------------------------------------------------------
@@ -49,12 +68,15 @@ export const findingCodes = {
   'cell-invalid': 'error',
   'lim-without-reason': 'error',
   'na-where-required': 'error',
-  'cells-missing': 'error',
+  // Readings not recorded yet: to do, not a fault (they still block locking).
+  'cells-missing': 'todo',
   'zs-over-max': 'error',
   'zs-over-80-percent': 'warning',
   'zs-limit-unknown': 'warning',
   'zs-above-expected': 'warning',
   'zs-below-expected': 'note',
+  'zs-tt-electrode-unstable': 'note',
+  'reading-zero': 'error',
   'ring-r1-rn-mismatch': 'warning',
   'ring-r2-ratio': 'warning',
   'ring-r1r2-inconsistent': 'warning',
@@ -71,7 +93,13 @@ export const findingCodes = {
   'board-polarity-not-confirmed': 'warning',
   'rcd-time-over-limit': 'error',
   'rcd-time-below-delay': 'warning',
-  'rcd-time-missing': 'error',
+  'rcd-time-missing': 'todo',
+  'rcd-5x-over-limit': 'error',
+  'rcd-5x-below-delay': 'warning',
+  'socket-circuit-without-rcd': 'warning',
+  'csa-small-for-device': 'warning',
+  'ipf-below-earth-fault-current': 'warning',
+  'radial-r1r2-vs-length': 'warning',
   'rcd-type-missing': 'warning',
   'rcd-button-fail': 'error',
   'afdd-button-fail': 'error',
@@ -79,6 +107,7 @@ export const findingCodes = {
   'circuit-untested': 'warning',
   'circuit-number-duplicate': 'warning',
   'readings-look-calculated': 'note',
+  ...previousReadingCodes,
 } as const satisfies Record<string, Severity>;
 
 export type FindingCode = keyof typeof findingCodes;
@@ -204,35 +233,42 @@ interface ZsLimit {
   result: MaxZsResult;
   timeS: number | null;
   timeAssumed: boolean;
+  /** Where an assumed time comes from (the Table 41.1 row for the site's U0). */
+  timeSource: string;
   /** True when the limit is the TT RCD one (50 V / IΔn), to which the 0.8 rule does not apply. */
   rcdBased: boolean;
 }
 
 function zsLimitOf(c: CheckCircuit, ctx: BoardContext): ZsLimit {
   if (ctx.earthing === 'TT' && c.rcdType && c.rcdRatedResidualMa !== null) {
-    return { result: rcdMaxZsTT(c.rcdRatedResidualMa), timeS: null, timeAssumed: false, rcdBased: true };
+    return { result: rcdMaxZsTT(c.rcdRatedResidualMa), timeS: null, timeAssumed: false, timeSource: '', rcdBased: true };
   }
   const timeAssumed = c.maxDisconnectionS === null;
-  const timeS = c.maxDisconnectionS ?? defaultDisconnectionTimeS({ earthing: ctx.earthing, kind: c.kind, ratingA: c.ratingA }).seconds;
+  const assumed = timeAssumed ? defaultDisconnectionTimeS({ earthing: ctx.earthing, kind: c.kind, ratingA: c.ratingA, u0: ctx.u0 }) : null;
+  const timeS = c.maxDisconnectionS ?? assumed!.seconds;
+  const timeSource = assumed?.source ?? TABLE_41_1_SOURCE;
   if (c.maxZsByHandOhm != null && (c.deviceStandard.trim() === '' || c.ratingA === null)) {
-    return byHand(c, c.maxZsByHandOhm, 'the device is not fully recorded', timeS, timeAssumed);
+    return byHand(c, c.maxZsByHandOhm, 'the device is not fully recorded', timeS, timeAssumed, timeSource);
   }
   if (c.deviceStandard.trim() === '') {
-    return { result: { ok: false, reason: 'no protective device is recorded' }, timeS, timeAssumed, rcdBased: false };
+    return { result: { ok: false, reason: 'no protective device is recorded' }, timeS, timeAssumed, timeSource, rcdBased: false };
   }
   if (c.ratingA === null) {
-    return { result: { ok: false, reason: 'the device rating In is not recorded' }, timeS, timeAssumed, rcdBased: false };
+    return { result: { ok: false, reason: 'the device rating In is not recorded' }, timeS, timeAssumed, timeSource, rcdBased: false };
   }
   const result = maxZs({ standard: c.deviceStandard, type: c.deviceType, ratingA: c.ratingA, disconnectionTimeS: timeS, u0: ctx.u0 });
-  if (!result.ok && c.maxZsByHandOhm != null) return byHand(c, c.maxZsByHandOhm, result.reason, timeS, timeAssumed);
-  return { result, timeS, timeAssumed, rcdBased: false };
+  if (!result.ok && c.maxZsByHandOhm != null) return byHand(c, c.maxZsByHandOhm, result.reason, timeS, timeAssumed, timeSource);
+  if (!result.ok && timeAssumed) {
+    return { result: { ok: false, reason: `${result.reason} (${timeS} s assumed from ${timeSource})` }, timeS, timeAssumed, timeSource, rcdBased: false };
+  }
+  return { result, timeS, timeAssumed, timeSource, rcdBased: false };
 }
 
 /**
  * A limit the tester entered by hand because the tables do not cover the device: used, and
  * labelled as such so a reviewer sees it was not looked up.
  */
-function byHand(c: CheckCircuit, limitOhm: number, why: string, timeS: number, timeAssumed: boolean): ZsLimit {
+function byHand(c: CheckCircuit, limitOhm: number, why: string, timeS: number, timeAssumed: boolean, timeSource: string): ZsLimit {
   const device = [c.deviceStandard.trim(), c.deviceType.trim(), c.ratingA === null ? '' : `${c.ratingA} A`].filter(Boolean).join(' ') || 'device';
   return {
     result: {
@@ -244,6 +280,7 @@ function byHand(c: CheckCircuit, limitOhm: number, why: string, timeS: number, t
     },
     timeS,
     timeAssumed,
+    timeSource,
     rcdBased: false,
   };
 }
@@ -277,6 +314,7 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
     polarity: EMPTY_CELL,
     zs: EMPTY_CELL,
     rcdTimeMs: EMPTY_CELL,
+    rcdTime5Ms: EMPTY_CELL,
     rcdButton: EMPTY_CELL,
     afddButton: EMPTY_CELL,
   };
@@ -346,7 +384,9 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   }
 
   const zsCell = parsed.zs;
-  const zs = plainNumber(zsCell);
+  const zsValue = plainNumber(zsCell);
+  // A Zs of 0 is not a measurement (said by its own finding): nothing to compare.
+  const zs = zsValue === 0 ? null : zsValue;
   const r1PlusR2 = plainNumber(parsed.r1PlusR2);
 
   zsRules(c, ctx, parsed, out);
@@ -394,11 +434,15 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
     );
   }
 
+  designRules(c, out);
+  radialLengthRule(c, r1PlusR2, out);
+
   const ringR1 = plainNumber(parsed.ringR1);
   const ringRn = plainNumber(parsed.ringRn);
   const ringR2 = plainNumber(parsed.ringR2);
   let ringTextbook: boolean | null = null;
   if (c.kind === 'ring') ringTextbook = ringRules(c, ringR1, ringRn, ringR2, r1PlusR2, out);
+  if (c.previous !== undefined) pushPreviousReadingFindings(c, parsed, out);
 
   out.sort(compareFindings);
   const numberKey = c.phase === null ? c.number.trim().toUpperCase() : `${c.number.trim().toUpperCase()}|${c.phase}`;
@@ -409,7 +453,24 @@ function zsRules(c: CheckCircuit, ctx: BoardContext, parsed: Readonly<Record<Rea
   const cell = parsed.zs;
   const value = numberOf(cell);
   if (value === null) return;
-  const { result, timeS, timeAssumed, rcdBased } = zsLimitOf(c, ctx);
+  if (cell.kind === 'number' && value === 0) {
+    out.push(finding('reading-zero', c.id, ['zs'], 'Zs 0 Ω is not a measurement (every loop has some impedance): write the meter\'s reading, or LIM with a reason.', '> 0 Ω', ZERO_READING_SOURCE));
+    return;
+  }
+  // ">200" is more than 200: beyond the stable range for certain.
+  if (ctx.earthing === 'TT' && (cell.kind === 'over-range' ? value >= TT_ELECTRODE_STABLE_UP_TO_OHM - EPS : value > TT_ELECTRODE_STABLE_UP_TO_OHM + EPS)) {
+    out.push(
+      finding(
+        'zs-tt-electrode-unstable',
+        c.id,
+        ['zs'],
+        `Zs ${show(parsed, 'zs')} on a TT system: above ${TT_ELECTRODE_STABLE_UP_TO_OHM} Ω the earth electrode's resistance may not be stable (dry or frozen ground); worth a remark or a second electrode.`,
+        `≤ ${TT_ELECTRODE_STABLE_UP_TO_OHM} Ω (for a stable electrode)`,
+        TT_ELECTRODE_STABLE_SOURCE,
+      ),
+    );
+  }
+  const { result, timeS, timeAssumed, timeSource, rcdBased } = zsLimitOf(c, ctx);
   if (!result.ok) {
     out.push(finding('zs-limit-unknown', c.id, ['zs', 'deviceStandard'], `Zs ${show(parsed, 'zs')} not checked: ${lowerFirst(result.reason)}`, null, null));
     return;
@@ -422,8 +483,8 @@ function zsRules(c: CheckCircuit, ctx: BoardContext, parsed: Readonly<Record<Rea
   if (!over && !overRule) return;
   const shown = show(parsed, 'zs');
   const timeText = timeS === null ? '' : ` at ${timeS} s`;
-  const assumedNote = timeAssumed ? ` (${timeS} s assumed from ${TABLE_41_1_SOURCE})` : '';
-  const source = timeAssumed ? `${result.source}; ${timeS} s from ${TABLE_41_1_SOURCE}` : result.source;
+  const assumedNote = timeAssumed ? ` (${timeS} s assumed from ${timeSource})` : '';
+  const source = timeAssumed ? `${result.source}; ${timeS} s from ${timeSource}` : result.source;
   if (over) {
     out.push(finding('zs-over-max', c.id, ['zs'], `Zs ${shown} is over the maximum ${ohmText(limit)} Ω for a ${result.device}${timeText}${assumedNote}.`, `≤ ${ohmText(limit)} Ω`, source));
     return;
@@ -450,9 +511,17 @@ function insulationRules(id: number, parsed: Readonly<Record<ReadingKey, ParsedC
   const voltageCell = parsed.irTestVoltage;
   const recordedVoltage = voltageCell.kind === 'number' ? voltageCell.value : null;
   const voltage = recordedVoltage ?? 500;
-  const minimum = insulationMinimum(voltage);
-  if (!minimum.ok) return;
+  const table = insulationMinimum(voltage);
+  if (!table.ok) return;
+  // A 250 V test on an ordinary circuit (equipment that could not be disconnected) keeps the
+  // 1.0 MΩ minimum; Table 64's 0.5 MΩ at 250 V is for SELV and PELV circuits, which the schedule
+  // does not mark, so the stricter value is used and the message says when 0.5 MΩ would apply.
+  const reduced = voltage === 250;
+  const minimum = reduced
+    ? { ...table, minMegohm: REDUCED_TEST_VOLTAGE_MINIMUM_MEGOHM, source: REDUCED_TEST_VOLTAGE_SOURCE, circuits: `circuits up to 500 V tested at 250 V; SELV and PELV circuits ${megohmText(table.minMegohm)} MΩ (${table.source})` }
+    : table;
   const assumed = recordedVoltage === null ? ' (test voltage not recorded: 500 V assumed)' : '';
+  const selvNote = reduced ? ` (a circuit up to 500 V tested at 250 V; if this is a SELV or PELV circuit, ${megohmText(table.minMegohm)} MΩ applies: accept the finding with that reason)` : '';
   for (const key of ['irLiveLive', 'irLiveEarth'] as const) {
     const cell = parsed[key];
     if (cell.kind !== 'number') continue; // ">N" is at least N: the meter's range is above every minimum
@@ -463,7 +532,7 @@ function insulationRules(id: number, parsed: Readonly<Record<ReadingKey, ParsedC
           'ir-below-minimum',
           id,
           [key, 'irTestVoltage'],
-          `${labelOf(key)} ${value} MΩ is below the minimum ${megohmText(minimum.minMegohm)} MΩ for a ${voltage} V test${assumed}.`,
+          `${labelOf(key)} ${value} MΩ is below the minimum ${megohmText(minimum.minMegohm)} MΩ for a ${voltage} V test${assumed}${value >= table.minMegohm - EPS ? selvNote : ''}.`,
           `≥ ${megohmText(minimum.minMegohm)} MΩ at ${voltage} V`,
           `${minimum.source} (${voltage} V DC test: ${minimum.circuits})`,
         ),
@@ -487,20 +556,17 @@ function rcdRules(c: CheckCircuit, parsed: Readonly<Record<ReadingKey, ParsedCel
     const limits = rcdTimeLimit(c.rcdType);
     const limitText = limits.minMs === null ? limits.maxText : `${limits.minMs}–${limits.maxMs} ms`;
 
-    if (time.kind === 'empty' || time.kind === 'na') {
+    if (time.kind === 'empty') {
+      out.push(finding('rcd-time-missing', id, ['rcdTimeMs'], `Not recorded yet: the operating time of the RCD (${rcdDescription(c)}) at IΔn.`, limitText, limits.source));
+    } else if (time.kind === 'na') {
       out.push(
-        finding(
-          'rcd-time-missing',
-          id,
-          ['rcdTimeMs'],
-          `An RCD (${rcdDescription(c)}) is fitted but its operating time is ${time.kind === 'na' ? 'N/A' : 'not recorded'}: test it at IΔn (or LIM with a reason).`,
-          limitText,
-          limits.source,
-        ),
+        finding('na-where-required', id, ['rcdTimeMs'], `RCD time is N/A, but an RCD (${rcdDescription(c)}) is fitted: test it at IΔn (or LIM with a reason).`, limitText, limits.source),
       );
     }
     const value = numberOf(time);
-    if (value !== null) {
+    if (time.kind === 'number' && value === 0) {
+      out.push(finding('reading-zero', id, ['rcdTimeMs'], 'RCD time 0 ms is not a measurement (no RCD operates in no time): write the meter\'s reading, or LIM with a reason.', '> 0 ms', ZERO_READING_SOURCE));
+    } else if (value !== null) {
       const shown = show(parsed, 'rcdTimeMs');
       const over = time.kind === 'number' ? value > limits.maxMs + EPS : value >= limits.maxMs - EPS;
       if (over) {
@@ -518,14 +584,129 @@ function rcdRules(c: CheckCircuit, parsed: Readonly<Record<ReadingKey, ParsedCel
         );
       }
     }
+    rcdFiveTimesRules(c, parsed, out);
     if (parsed.rcdButton.kind === 'fail') {
       out.push(finding('rcd-button-fail', id, ['rcdButton'], 'The RCD test button did not operate the RCD (✗).', '✓ (operates)', limits.source));
     }
-  } else if (numberOf(time) !== null) {
-    out.push(finding('rcd-type-missing', id, ['rcdTimeMs', 'rcdType'], 'An RCD time is recorded but no RCD type: record the type and IΔn so the time can be checked.', null, null));
+  } else if (numberOf(time) !== null || numberOf(parsed.rcdTime5Ms) !== null) {
+    const columns = numberOf(time) !== null ? ['rcdTimeMs', 'rcdType'] : ['rcdTime5Ms', 'rcdType'];
+    out.push(finding('rcd-type-missing', id, columns, 'An RCD time is recorded but no RCD type: record the type and IΔn so the time can be checked.', null, null));
   }
   if (parsed.afddButton.kind === 'fail') {
     out.push(finding('afdd-button-fail', id, ['afddButton'], 'The AFDD test button did not operate the device (✗).', '✓ (operates)', 'BS 7671:2018+A2 model forms: AFDD test button [from memory]'));
+  }
+}
+
+const SOCKET_WORDS = /\b(sockets?|skts?|socket-outlets?)\b/i;
+
+/**
+ * Whether a circuit feeds socket-outlets: a ring final (in UK practice rings feed sockets), or a
+ * radial or spur whose description says so.
+ */
+function feedsSockets(c: CheckCircuit): boolean {
+  return c.kind === 'ring' || (c.kind !== 'distribution' && SOCKET_WORDS.test(c.description));
+}
+
+/** Design checks on what the circuit is: they say "check the design", never that it is wrong. */
+function designRules(c: CheckCircuit, out: Finding[]): void {
+  const id = c.id;
+  if (feedsSockets(c) && (c.ratingA === null || c.ratingA <= SOCKET_RCD_MAX_RATING_A + EPS)) {
+    const noRcd = !c.rcdType;
+    const tooInsensitive = !noRcd && c.rcdRatedResidualMa !== null && c.rcdRatedResidualMa > SOCKET_RCD_MAX_MA + EPS;
+    if (noRcd || tooInsensitive) {
+      out.push(
+        finding(
+          'socket-circuit-without-rcd',
+          id,
+          noRcd ? ['rcdType'] : ['rcdRatedResidualMa'],
+          `${c.kind === 'ring' ? 'A ring final' : 'A socket-outlet circuit'}${c.ratingA === null ? '' : ` on ${c.ratingA} A`} ${
+            noRcd ? 'has no RCD' : `has a ${c.rcdRatedResidualMa} mA RCD`
+          }: socket-outlets up to ${SOCKET_RCD_MAX_RATING_A} A need additional protection by an RCD of ${SOCKET_RCD_MAX_MA} mA or less (outside a dwelling a documented risk assessment may omit it).`,
+          `RCD, IΔn ≤ ${SOCKET_RCD_MAX_MA} mA`,
+          SOCKET_RCD_SOURCE,
+        ),
+      );
+    }
+  }
+  // Spurs take the ring's device, so their cable is judged with the ring's rules, not here.
+  if (c.kind !== 'spur' && c.liveCsaMm2 !== null && c.ratingA !== null) {
+    const capacity = twinAndEarthCapacityMethodC.get(c.liveCsaMm2);
+    if (capacity !== undefined) {
+      const ring = c.kind === 'ring';
+      const needed = ring ? RING_CAPACITY_FRACTION * c.ratingA : c.ratingA;
+      if (capacity < needed - EPS) {
+        out.push(
+          finding(
+            'csa-small-for-device',
+            id,
+            ['liveCsaMm2', 'ratingA'],
+            `${c.liveCsaMm2} mm² looks small for a ${c.ratingA} A device${ring ? ' on a ring' : ''}: flat twin-and-earth carries about ${capacity} A even clipped direct, and less in walls, insulation or bunched. Check the design (it depends on the installation method).`,
+            ring ? `Iz ≥ ${formatFixed(needed, 1)} A (0.67 × In, ring)` : `Iz ≥ ${c.ratingA} A (In)`,
+            ring ? `${RING_CAPACITY_SOURCE}; Iz from ${TWIN_AND_EARTH_CAPACITY_SOURCE}` : TWIN_AND_EARTH_CAPACITY_SOURCE,
+          ),
+        );
+      }
+    }
+  }
+}
+
+/** How far a radial's R1+R2 may stray from its length's values: the larger of 0.05 Ω and 15 %. */
+const LENGTH_ALLOWANCE_OHM = 0.05;
+const LENGTH_ALLOWANCE_FRACTION = 0.15;
+
+/**
+ * A radial (or distribution circuit) whose cable length is recorded: R1+R2 is a series path, so it
+ * should lie between the length's value at 20 °C (a cold cable) and at 70 °C (× 1.20, a cable warm
+ * from use), with an allowance for a length that is usually estimated.
+ */
+function radialLengthRule(c: CheckCircuit, r1PlusR2: number | null, out: Finding[]): void {
+  const lengthM = c.cableLengthM;
+  if (lengthM == null || r1PlusR2 === null || (c.kind !== 'radial' && c.kind !== 'distribution')) return;
+  if (c.liveCsaMm2 === null || c.cpcCsaMm2 === null) return;
+  const perMetre = r1PlusR2PerMetre(c.liveCsaMm2, c.cpcCsaMm2);
+  if (!perMetre.ok) return;
+  const factor = tradeTemperatureFactors.thermoplastic70.factor;
+  const cold = (lengthM * perMetre.milliohmPerMetre) / 1000;
+  const warm = cold * factor;
+  const allowance = Math.max(LENGTH_ALLOWANCE_OHM, LENGTH_ALLOWANCE_FRACTION * cold);
+  const low = cold - allowance;
+  const high = warm + allowance;
+  if (r1PlusR2 >= low - EPS && r1PlusR2 <= high + EPS) return;
+  const why = r1PlusR2 > high ? 'a poor joint or termination, a longer run than recorded, or a smaller cpc?' : 'a shorter run than recorded, a larger cable, or parallel paths?';
+  out.push(
+    finding(
+      'radial-r1r2-vs-length',
+      c.id,
+      ['r1PlusR2', 'cableLengthM'],
+      `R1+R2 ${ohmReading(r1PlusR2)} Ω does not fit ${lengthM} m of ${c.liveCsaMm2}/${c.cpcCsaMm2} (${formatFixed(cold, 2)} Ω at 20 °C, ${formatFixed(warm, 2)} Ω at 70 °C): ${why}`,
+      `${formatFixed(Math.max(0, low), 2)}–${formatFixed(high, 2)} Ω`,
+      `length × ${perMetre.milliohmPerMetre} mΩ/m (${IEC_60228_SOURCE}), × 1 to × ${factor} for 20–70 °C (${tradeTemperatureFactors.thermoplastic70.source}); allowance ± the larger of 0.05 Ω and 15 % of the 20 °C value — common practice`,
+    ),
+  );
+}
+
+/** The optional test at 5 × IΔn: ≤ 40 ms (general type), 50–150 ms (time-delayed). */
+function rcdFiveTimesRules(c: CheckCircuit, parsed: Readonly<Record<ReadingKey, ParsedCell>>, out: Finding[]): void {
+  const cell = parsed.rcdTime5Ms;
+  const value = numberOf(cell);
+  if (value === null) return;
+  const id = c.id;
+  if (cell.kind === 'number' && value === 0) {
+    out.push(finding('reading-zero', id, ['rcdTime5Ms'], 'RCD time at 5 × IΔn 0 ms is not a measurement: write the meter\'s reading, or leave the optional test blank.', '> 0 ms', ZERO_READING_SOURCE));
+    return;
+  }
+  const delayed = isTimeDelayedRcd(c.rcdType ?? '');
+  const maxMs = delayed ? rcdFiveTimesDelayedLimit.maxMs : rcdFiveTimesLimit.maxMs;
+  const limitText = delayed ? `${rcdFiveTimesDelayedLimit.minMs}–${rcdFiveTimesDelayedLimit.maxMs} ms` : `≤ ${rcdFiveTimesLimit.maxMs} ms`;
+  const source = delayed ? rcdFiveTimesDelayedLimit.source : rcdFiveTimesLimit.source;
+  const shown = show(parsed, 'rcdTime5Ms');
+  const over = cell.kind === 'number' ? value > maxMs + EPS : value >= maxMs - EPS;
+  if (over) {
+    out.push(finding('rcd-5x-over-limit', id, ['rcdTime5Ms'], `RCD time at 5 × IΔn ${shown} is over ${maxMs} ms for a ${delayed ? 'time-delayed (S)' : 'general'} type (${rcdDescription(c)}).`, limitText, source));
+  } else if (delayed && cell.kind === 'number' && value < rcdFiveTimesDelayedLimit.minMs - EPS) {
+    out.push(
+      finding('rcd-5x-below-delay', id, ['rcdTime5Ms'], `RCD time at 5 × IΔn ${shown} is faster than a time-delayed (S) type operates (${limitText}): check the type recorded.`, limitText, source),
+    );
   }
 }
 
@@ -578,7 +759,7 @@ function ringRules(c: CheckCircuit, r1: number | null, rn: number | null, r2: nu
       const half = (r1 + r2) / 2;
       const why =
         Math.abs(r1PlusR2 - half) <= RING_R1R2_ALLOWANCE_OHM + EPS
-          ? `about (r1+r2)/2 = ${formatFixed(half, 2)} Ω, twice what a correctly cross-connected ring reads: were the ends linked wrongly at step 3?`
+          ? `about (r1+r2)/2 = ${formatFixed(half, 2)} Ω, twice the most a correctly cross-connected ring reads. With only one of the two cross-connections made (or one loose) the ring is a single path and a socket mid-ring reads (r1+r2)/2: were both ends linked, line to the opposite cpc, at step 3?`
           : 'a spur, a loose termination, or a reading at the wrong point.';
       out.push(
         finding('ring-r1r2-inconsistent', id, ['r1PlusR2', 'ringR1', 'ringR2'], `R1+R2 ${ohmReading(r1PlusR2)} Ω is above (r1+r2)/4 = ${formatFixed(quarter, 2)} Ω: ${why}`, quarterLimit(quarter), source),
@@ -660,6 +841,11 @@ export function spurOriginFraction(origin: string | null, ringPoints: number | n
   return null;
 }
 
+/** Whether a spur's origin names a socket by number ("socket 4", "4") rather than a fraction. */
+function isSocketNumber(origin: string | null): boolean {
+  return origin !== null && /^(?:socket|skt|point|pt|no\.?|#)?\s*\d+$/.test(origin.trim().toLowerCase());
+}
+
 function fractionOrNull(x: number): number | null {
   return Number.isFinite(x) && x >= 0 && x <= 1 ? x : null;
 }
@@ -671,6 +857,23 @@ function circuitName(c: CheckCircuit): string {
 /** Rules that compare circuits with each other, and the board's own details. */
 function crossCircuitFindings(input: CheckInput, facts: readonly CircuitFacts[]): Finding[] {
   const out: Finding[] = [];
+  const { zdbOhm, ipfKa } = input.board;
+  if (zdbOhm !== null && ipfKa !== null && zdbOhm > 0) {
+    const earthFaultKa = input.site.nominalVoltageV / zdbOhm / 1000;
+    const floor = IPF_BELOW_EARTH_FAULT_FRACTION * earthFaultKa;
+    if (ipfKa < floor - EPS) {
+      out.push(
+        finding(
+          'ipf-below-earth-fault-current',
+          null,
+          [],
+          `Ipf ${ipfKa} kA is far below U0 / Zdb = ${input.site.nominalVoltageV} V / ${ohmReading(zdbOhm)} Ω = ${formatFixed(earthFaultKa, 2)} kA: one of the two is probably written wrongly (a slipped decimal point, or A for kA).`,
+          `≥ ${formatFixed(floor, 2)} kA (half of U0 / Zdb)`,
+          IPF_CONSISTENCY_SOURCE,
+        ),
+      );
+    }
+  }
   if (!input.board.polarityConfirmed && facts.length > 0) {
     out.push(finding('board-polarity-not-confirmed', null, [], 'Polarity at the board is not confirmed.', '✓ (confirmed)', POLARITY_SOURCE));
   }
@@ -798,6 +1001,29 @@ function spurRules(spurFacts: CircuitFacts, ring: CircuitFacts, out: Finding[]):
   const perMetre = r1PlusR2PerMetre(spur.liveCsaMm2, spur.cpcCsaMm2);
   if (!perMetre.ok) return;
   const x = spurOriginFraction(spur.spurOriginPoint, ring.circuit.points);
+  const cableOhm = (spur.spurLengthM * perMetre.milliohmPerMetre) / 1000;
+  // "socket 4" says which socket, not where it is along the ring: the ring's value there is anywhere
+  // in the sound range r1·r2/(r1+r2) … (r1+r2)/4, so the spur is judged against that range.
+  if (x !== null && isSocketNumber(spur.spurOriginPoint) && ring.ringR1 !== null && ring.ringR2 !== null && ring.ringR1 + ring.ringR2 > 0) {
+    const r1 = ring.ringR1;
+    const r2 = ring.ringR2;
+    const low = (r1 * r2) / (r1 + r2) + cableOhm;
+    const high = (r1 + r2) / 4 + cableOhm;
+    const allowance = Math.max(SPUR_ALLOWANCE_OHM, SPUR_ALLOWANCE_FRACTION * high);
+    if (measured < low - allowance - EPS || measured > high + allowance + EPS) {
+      out.push(
+        finding(
+          'spur-r1r2-unexpected',
+          spur.id,
+          ['r1PlusR2'],
+          `Spur R1+R2 ${ohmReading(measured)} Ω; expected ${formatFixed(low, 2)}–${formatFixed(high, 2)} Ω: the ring reads ${formatFixed(low - cableOhm, 2)}–${formatFixed(high - cableOhm, 2)} Ω at a socket (from r1 and r2, wherever ${spur.spurOriginPoint!.trim()} is) + ${spur.spurLengthM} m of ${spur.liveCsaMm2}/${spur.cpcCsaMm2} at ${perMetre.milliohmPerMetre} mΩ/m.`,
+          `${formatFixed(Math.max(0, low - allowance), 2)}–${formatFixed(high + allowance, 2)} Ω`,
+          `ring range r1·r2/(r1+r2) … (r1+r2)/4 + length × R1+R2 per metre (${IEC_60228_SOURCE}); allowance ± the larger of 0.05 Ω and 10 % — common practice`,
+        ),
+      );
+    }
+    return;
+  }
   let ringValue: number | null = null;
   let basis: 'origin' | 'recorded' | 'quarter' = 'recorded';
   if (x !== null && ring.ringR1 !== null && ring.ringR2 !== null && ring.ringR1 + ring.ringR2 > 0) {
@@ -810,7 +1036,6 @@ function spurRules(spurFacts: CircuitFacts, ring: CircuitFacts, out: Finding[]):
     basis = 'quarter';
   }
   if (ringValue === null) return;
-  const cableOhm = (spur.spurLengthM * perMetre.milliohmPerMetre) / 1000;
   const expected = ringValue + cableOhm;
   const allowance = Math.max(SPUR_ALLOWANCE_OHM, SPUR_ALLOWANCE_FRACTION * expected);
   if (Math.abs(measured - expected) > allowance + EPS) {

@@ -57,6 +57,11 @@ export const circuitFieldsSchema = z.object({
   liveCsaMm2: z.number().positive().max(1000).nullable(),
   cpcCsaMm2: z.number().positive().max(1000).nullable(),
   maxDisconnectionS: z.number().positive().max(60).nullable(),
+  /**
+   * Length of the circuit's cable (m), when known: a radial's R1+R2 is checked against it. Optional
+   * so circuits written before the field existed still fit.
+   */
+  cableLengthM: z.number().positive().max(2000).nullable().optional(),
   deviceStandard: z.string().max(20),
   deviceType: z.string().max(12),
   ratingA: z.number().positive().max(6300).nullable(),
@@ -72,7 +77,8 @@ export const circuitFieldsSchema = z.object({
   /** For a spur: length of the spur cable (m), when known. */
   spurLengthM: z.number().positive().max(1000).nullable(),
   /** A maximum Zs (Ω) entered by hand for a device the published tables do not cover. */
-  maxZsByHandOhm: z.number().positive().max(200).nullable(),
+  // Up to 2000 Ω: on TT the limit set by an RCD is 50 V / IΔn (1667 Ω at 30 mA).
+  maxZsByHandOhm: z.number().positive().max(2000).nullable(),
 });
 export type CircuitFields = z.infer<typeof circuitFieldsSchema>;
 
@@ -101,11 +107,25 @@ export const boardSummarySchema = z.object({
 export type BoardSummary = z.infer<typeof boardSummarySchema>;
 export const boardListResponseSchema = z.object({ boards: z.array(boardSummarySchema) });
 
+/**
+ * The readings of one circuit last time: the same circuit (`circuits.previous_circuit_id`) on the
+ * earlier job this board was started from, with that job's reference and visit date.
+ */
+export const previousReadingsSchema = z.object({
+  /** The circuit on this board. */
+  circuitId: z.number().int(),
+  job: z.object({ id: z.number().int(), kind: z.string(), reference: z.string(), visitDate: z.string() }),
+  cells: z.partialRecord(z.enum(readingKeys), z.object({ text: z.string(), reason: z.string().nullable() })),
+});
+export type PreviousReadings = z.infer<typeof previousReadingsSchema>;
+
 export const boardDetailResponseSchema = z.object({
   board: boardSchema,
   site: siteSchema,
   job: jobSchema,
   circuits: z.array(circuitSchema),
+  /** Last time's readings of the circuits that have a previous circuit; absent or empty otherwise. */
+  previousReadings: z.array(previousReadingsSchema).optional(),
   findings: z.array(findingSchema),
   /** Cursor of the newest change included; pass it to the changes feed. */
   cursor: z.number().int(),
@@ -161,7 +181,8 @@ export const updateBoardBodySchema = z.object({
       reference: z.string().trim().min(1).max(60),
       location: z.string().max(120),
       suppliedFrom: z.string().max(120),
-      zdbOhm: z.number({ error: `Zdb must be ${decimalText}.` }).nonnegative().max(100).nullable(),
+      // Up to 2000 Ω: on TT the earth electrode is in the loop, and hundreds of ohms are normal.
+      zdbOhm: z.number({ error: `Zdb must be ${decimalText}.` }).nonnegative().max(2000, 'Zdb is at most 2000 Ω.').nullable(),
       ipfKa: z.number({ error: `Ipf must be ${decimalText}.` }).nonnegative().max(200).nullable(),
       polarityConfirmed: z.boolean(),
       phaseSequenceConfirmed: z.boolean(),

@@ -34,12 +34,19 @@ export const readingKeys = [
   'polarity',
   'zs',
   'rcdTimeMs',
+  'rcdTime5Ms',
   'rcdButton',
   'afddButton',
 ] as const;
 
 /** A reading column: stored as text exactly as the tester typed it. */
 export type ReadingKey = (typeof readingKeys)[number];
+
+/**
+ * Reading columns of optional tests (the RCD at 5 × IΔn since BS 7671:2018+A2): checked when
+ * written, never required, and not counted among the cells a board has to fill.
+ */
+export const optionalReadingKeys: readonly ReadingKey[] = ['rcdTime5Ms'];
 
 export const detailKeys = [
   'description',
@@ -50,6 +57,7 @@ export const detailKeys = [
   'liveCsaMm2',
   'cpcCsaMm2',
   'maxDisconnectionS',
+  'cableLengthM',
   'deviceStandard',
   'deviceType',
   'ratingA',
@@ -102,6 +110,7 @@ export const columns: readonly ColumnDef[] = [
   { key: 'liveCsaMm2', storage: 'detail', group: 'circuit', label: 'Live', unit: 'mm²', meaning: 'Cross-sectional area of the live conductors', valueKind: 'number', aliases: ['live', 'csa'], width: 60 },
   { key: 'cpcCsaMm2', storage: 'detail', group: 'circuit', label: 'cpc', unit: 'mm²', meaning: 'Cross-sectional area of the circuit protective conductor', valueKind: 'number', aliases: ['cpc'], width: 60 },
   { key: 'maxDisconnectionS', storage: 'detail', group: 'circuit', label: 'Max disc.', unit: 's', meaning: 'Maximum disconnection time permitted', valueKind: 'number', aliases: ['disc', 'time'], width: 70 },
+  { key: 'cableLengthM', storage: 'detail', group: 'circuit', label: 'Length', unit: 'm', meaning: 'Length of the circuit cable, when known (a radial’s R1+R2 is checked against it)', valueKind: 'number', aliases: ['length', 'len', 'metres'], width: 60 },
   { key: 'deviceStandard', storage: 'detail', group: 'device', label: 'BS (EN)', meaning: 'Standard of the protective device, e.g. 60898, 61009, 88-2, 3036, 1362', valueKind: 'text', aliases: ['bs', 'standard'], width: 76 },
   { key: 'deviceType', storage: 'detail', group: 'device', label: 'Type', meaning: 'Device type: B, C, D for circuit-breakers; gG for BS 88-2 fuses', valueKind: 'text', aliases: ['type'], width: 52 },
   { key: 'ratingA', storage: 'detail', group: 'device', label: 'In', unit: 'A', meaning: 'Rated current of the protective device', valueKind: 'number', aliases: ['in', 'rating', 'amps'], width: 52 },
@@ -120,6 +129,7 @@ export const columns: readonly ColumnDef[] = [
   { key: 'rcdType', storage: 'detail', group: 'rcd', label: 'RCD type', meaning: 'RCD type (AC, A, F, B; S- for time-delayed); empty when none', valueKind: 'choice', choices: rcdTypes, aliases: ['rcdtype'], width: 70 },
   { key: 'rcdRatedResidualMa', storage: 'detail', group: 'rcd', label: 'IΔn', unit: 'mA', meaning: 'Rated residual operating current of the RCD', valueKind: 'number', aliases: ['idn', 'ma'], width: 56 },
   { key: 'rcdTimeMs', storage: 'reading', group: 'rcd', label: 'Time', unit: 'ms', meaning: 'RCD operating time at IΔn', valueKind: 'reading', aliases: ['rcd', 'trip', 'ms'], width: 60 },
+  { key: 'rcdTime5Ms', storage: 'reading', group: 'rcd', label: 'Time 5×', unit: 'ms', meaning: 'RCD operating time at 5 × IΔn, where that optional test is made', valueKind: 'reading', aliases: ['rcd5', 'trip5', 'x5'], width: 60 },
   { key: 'rcdButton', storage: 'reading', group: 'rcd', label: 'RCD btn', meaning: 'RCD test button operates (✓/✗)', valueKind: 'pass-fail', aliases: ['rcdbtn', 'button'], width: 64 },
   { key: 'afdd', storage: 'detail', group: 'rcd', label: 'AFDD', meaning: 'Arc fault detection device fitted (yes / no)', valueKind: 'choice', choices: ['yes', 'no'], aliases: ['afdd'], width: 56 },
   { key: 'afddButton', storage: 'reading', group: 'rcd', label: 'AFDD btn', meaning: 'AFDD test button operates (✓/✗)', valueKind: 'pass-fail', aliases: ['afddbtn'], width: 68 },

@@ -27,6 +27,10 @@ export const errorCodes = [
   'not_found',
   'conflict',
   'locked',
+  /** An uploaded file is larger than the route allows (413). */
+  'too_large',
+  /** An uploaded file's content is not a type the route accepts (415). */
+  'unsupported_type',
   'too_many_requests',
   'internal',
 ] as const;

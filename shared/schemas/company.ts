@@ -29,6 +29,8 @@ export const companySchema = companyFieldsSchema.extend({
   logoFileId: z.number().int().nullable(),
 });
 export type Company = z.infer<typeof companySchema>;
+/** `GET /api/company` and `PUT /api/company` answer the company's details. */
+export const companyResponseSchema = z.object({ company: companySchema });
 
 export const defaultCompany: Company = {
   name: 'Your company name',

@@ -1,6 +1,12 @@
 import { z } from 'zod';
 
-export const severities = ['error', 'warning', 'note'] as const;
+/**
+ * How much a finding matters. `error`, `warning` and `note` are findings about values that were
+ * typed (or board details); `todo` is a reading the schedule still needs and nobody has recorded
+ * yet. A `todo` blocks locking as an error does, but an unfinished board is mostly todo, so it is
+ * counted per column rather than listed among the faults.
+ */
+export const severities = ['error', 'warning', 'note', 'todo'] as const;
 export const severitySchema = z.enum(severities);
 export type Severity = z.infer<typeof severitySchema>;
 

@@ -62,8 +62,8 @@ const dateText = z.iso.date({ error: 'Write the date as YYYY-MM-DD.' });
 const emailOrBlank = z.union([z.literal(''), z.email({ error: 'That is not an e-mail address.' })]);
 
 export const siteFieldsSchema = z.object({
-  client: z.string().trim().min(1, 'Name the client.').max(200, 'At most 200 characters.'),
-  address: z.string().trim().min(1, 'Give the installation address.').max(400, 'At most 400 characters.'),
+  client: z.string({ error: 'Name the client.' }).trim().min(1, 'Name the client.').max(200, 'At most 200 characters.'),
+  address: z.string({ error: 'Give the installation address.' }).trim().min(1, 'Give the installation address.').max(400, 'At most 400 characters.'),
   description: z.string().trim().max(400, 'At most 400 characters.'),
   contactName: z.string().trim().max(120, 'At most 120 characters.'),
   contactEmail: emailOrBlank,
@@ -75,7 +75,10 @@ export const siteFieldsSchema = z.object({
 export type SiteFields = z.infer<typeof siteFieldsSchema>;
 
 /** A new site: client and address required; the rest default (TN-C-S, 230 V, blanks). */
-export const createSiteBodySchema = siteFieldsSchema.partial().required({ client: true, address: true });
+export const createSiteBodySchema = siteFieldsSchema
+  .partial()
+  // Required again with their own words (`.required()` would answer a missing one in zod's words).
+  .extend({ client: siteFieldsSchema.shape.client, address: siteFieldsSchema.shape.address });
 export type CreateSiteBody = z.infer<typeof createSiteBodySchema>;
 export const updateSiteBodySchema = z.object({
   version: z.number().int().min(0),
@@ -122,7 +125,7 @@ export const boardLayouts = ['single-phase', 'three-phase'] as const;
  */
 export const createBoardBodySchema = z
   .object({
-    reference: z.string().trim().min(1, 'Give the board a reference.').max(60, 'At most 60 characters.'),
+    reference: z.string({ error: 'Give the board a reference.' }).trim().min(1, 'Give the board a reference.').max(60, 'At most 60 characters.'),
     location: z.string().trim().max(120, 'At most 120 characters.').default(''),
     suppliedFrom: z.string().trim().max(120, 'At most 120 characters.').default(''),
     layout: z.enum(boardLayouts, { error: 'Choose single-phase or three-phase.' }),

@@ -40,7 +40,7 @@ export function AppLayout() {
             Jobs
           </NavLink>
           {me?.role === 'admin' && (
-            <NavLink to="/admin/users" className={navLinkClass}>
+            <NavLink to="/admin" className={navLinkClass}>
               Admin
             </NavLink>
           )}

@@ -1,5 +1,6 @@
 import { Navigate, RouterProvider, createBrowserRouter, type RouteObject } from 'react-router-dom';
 import { SignInPage } from '../features/auth/components/sign-in-page.tsx';
+import { AdminLayout } from './admin-layout.tsx';
 import { AppLayout } from './app-layout.tsx';
 import { FullPageMessage } from './full-page-message.tsx';
 import { NotFoundPage } from './not-found-page.tsx';
@@ -11,7 +12,8 @@ import { RouteErrorPage } from './route-error-page.tsx';
  * Every route of the app. Signed-out people reach only /sign-in; the rest sits behind RequireAuth
  * inside the app layout. Each page behind sign-in is its own chunk, loaded when first opened: the
  * sign-in page loads only itself and the frame, the jobs list does not load the board console (the
- * largest part of the client: grid, palette, checker, sync engine), and only admins load admin.
+ * largest part of the client: grid, palette, checker, sync engine) nor the job screen, and only
+ * admins load the admin pages.
  */
 export const appRoutes: RouteObject[] = [
   {
@@ -46,17 +48,43 @@ export const appRoutes: RouteObject[] = [
             },
           },
           {
-            path: 'admin/users',
+            path: 'jobs/:jobId',
             lazy: async () => {
-              const { UsersPage } = await import('../features/admin/components/users-page.tsx');
-              return {
-                Component: () => (
-                  <RequireRole roles={['admin']} refusal="Only an admin can manage people.">
-                    <UsersPage />
-                  </RequireRole>
-                ),
-              };
+              const { JobRoute } = await import('./job-route.tsx');
+              return { Component: JobRoute };
             },
+          },
+          {
+            path: 'admin',
+            element: (
+              <RequireRole roles={['admin']} refusal="Only an admin can manage people, the company's details and the mailbox.">
+                <AdminLayout />
+              </RequireRole>
+            ),
+            children: [
+              { index: true, element: <Navigate to="/admin/users" replace /> },
+              {
+                path: 'users',
+                lazy: async () => {
+                  const { UsersPage } = await import('../features/admin/components/users-page.tsx');
+                  return { Component: UsersPage };
+                },
+              },
+              {
+                path: 'company',
+                lazy: async () => {
+                  const { CompanyPage } = await import('../features/admin/components/company-page.tsx');
+                  return { Component: CompanyPage };
+                },
+              },
+              {
+                path: 'mailbox',
+                lazy: async () => {
+                  const { MailboxPage } = await import('../features/mail/components/mailbox-page.tsx');
+                  return { Component: MailboxPage };
+                },
+              },
+            ],
           },
           { path: '*', element: <NotFoundPage /> },
         ],

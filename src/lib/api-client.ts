@@ -76,5 +76,29 @@ export async function apiRequest<T extends z.ZodType>(
   return schema.parse(json);
 }
 
+/**
+ * Sends a multipart form (a file upload with its fields) and parses the answer like `apiRequest`.
+ * The browser sets the content type with the form's boundary.
+ */
+export async function apiUpload<T extends z.ZodType>(method: 'POST' | 'PUT', url: string, schema: T, form: FormData): Promise<z.infer<T>> {
+  let response: Response;
+  try {
+    response = await fetch(url, { method, credentials: 'same-origin', headers: { accept: 'application/json' }, body: form });
+  } catch (error) {
+    throw new NetworkError(error);
+  }
+  const json: unknown = await response.json().catch(() => undefined);
+  if (!response.ok) {
+    const parsed = apiErrorSchema.safeParse(json);
+    if (parsed.success) {
+      const { code, message, issues, details } = parsed.data.error;
+      throw new ApiError(response.status, code, message, issues ?? [], details);
+    }
+    if (response.status === 413) throw new ApiError(413, 'too_large', 'The file is too large.');
+    throw new ApiError(response.status, 'unknown', `The server answered ${response.status}.`);
+  }
+  return schema.parse(json);
+}
+
 export const apiGet = <T extends z.ZodType>(url: string, schema: T, init?: { signal?: AbortSignal }) =>
   apiRequest('GET', url, schema, undefined, init);

@@ -8,6 +8,7 @@ import { createApp, sessionSecretFrom } from '../../server/app.ts';
 import { openDatabase, type DB } from '../../server/db/database.ts';
 import { migrateToLatest } from '../../server/db/migrate.ts';
 import { seedDemo } from '../../server/db/seed/seed-demo.ts';
+import { startLocalMailServer } from '../../server/mail/local-mail-server.ts';
 import { listen } from './test-app.ts';
 
 export const chromiumPath = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
@@ -33,6 +34,8 @@ export function launchBrowser(): Promise<Browser> {
 
 export interface DemoServer {
   url: string;
+  /** The data folder: stored files under files/, the local mail server's messages under mailbox/. */
+  dataDir: string;
   db: DB;
   server: Server;
   close(): Promise<void>;
@@ -49,16 +52,29 @@ export async function startDemoServer(): Promise<DemoServer> {
   const { db, sqlite } = openDatabase(path.join(dir, 'test.sqlite'));
   await migrateToLatest(db);
   await seedDemo(db);
-  const app = createApp({ db, sqlite, sessionSecret: await sessionSecretFrom(db), clientDir, signInAttemptsPerMinute: 1000 });
+  // The project's own mail server, as `npm start` runs it without SMTP_URL, on a free port.
+  const mail = await startLocalMailServer({ dir: path.join(dir, 'mailbox'), port: 0 });
+  const app = createApp({
+    db,
+    sqlite,
+    sessionSecret: await sessionSecretFrom(db),
+    clientDir,
+    signInAttemptsPerMinute: 1000,
+    dataDir: dir,
+    smtpUrl: mail.url,
+    localMailPort: mail.port,
+  });
   const { server, url } = await listen(app);
   return {
     url,
+    dataDir: dir,
     db,
     server,
     close: () =>
       new Promise<void>((resolve) => {
         server.closeAllConnections();
-        server.close(() => {
+        server.close(async () => {
+          await mail.close();
           sqlite.close();
           fs.rmSync(dir, { recursive: true, force: true });
           resolve();

@@ -65,6 +65,8 @@ export interface ApiCall {
   path: string;
   search: string;
   body: unknown;
+  /** A multipart body (an upload) as sent, when the request carried one. */
+  form?: FormData;
 }
 
 type Handler = (call: ApiCall) => Response | Promise<Response>;
@@ -80,7 +82,8 @@ export function stubApi(handlers: Record<string, Handler>): ApiCall[] {
     const url = new URL(typeof input === 'string' ? input : input instanceof URL ? input.href : input.url, 'http://localhost');
     const method = (init.method ?? 'GET').toUpperCase();
     const body = typeof init.body === 'string' ? (JSON.parse(init.body) as unknown) : undefined;
-    const call: ApiCall = { method, path: url.pathname, search: url.search, body };
+    const form = init.body instanceof FormData ? init.body : undefined;
+    const call: ApiCall = { method, path: url.pathname, search: url.search, body, ...(form ? { form } : {}) };
     calls.push(call);
     const handler = handlers[`${method} ${url.pathname}`];
     if (!handler) return json(404, { error: { code: 'not_found', message: `No fake for ${method} ${url.pathname}.` } });

@@ -1,4 +1,7 @@
+import fs from 'node:fs';
 import type { Server } from 'node:http';
+import os from 'node:os';
+import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import bcrypt from 'bcryptjs';
 import express, { type Express } from 'express';
@@ -21,6 +24,8 @@ export interface TestApp {
   /** The app exactly as `createApp` made it. */
   rawApp: Express;
   ids: { admin: number; tester: number; tester2: number; reviewer: number; site: number; job: number; board: number };
+  /** The app's data folder (stored files, the mailbox): a fresh temporary folder, removed by `close()`. */
+  dataDir: string;
   /** A supertest agent signed in as one of the accounts (cookies kept). */
   signIn(role: 'admin' | 'tester' | 'tester2' | 'reviewer'): Promise<ReturnType<typeof request.agent>>;
   close(): void;
@@ -30,7 +35,7 @@ export interface TestApp {
  * A fresh in-memory database with one person per role, one site, job and open board of three
  * circuits, and the app over it. Small invented fixture, not the demo data.
  */
-export async function createTestApp(options: { presence?: Presence } = {}): Promise<TestApp> {
+export async function createTestApp(options: { presence?: Presence; smtpUrl?: string; dataDir?: string } = {}): Promise<TestApp> {
   const { db, sqlite } = openDatabase(':memory:');
   await migrateToLatest(db);
   const hash = bcrypt.hashSync(password, 4);
@@ -56,7 +61,16 @@ export async function createTestApp(options: { presence?: Presence } = {}): Prom
   });
   await db.insertInto('circuits').values([circuit(1, '1', 'Sockets', 'ring'), circuit(2, '2', 'Lights', 'radial'), circuit(3, '3', 'Lights upstairs', 'radial')]).execute();
 
-  const rawApp = createApp({ db, sqlite, sessionSecret: 'test-secret', signInAttemptsPerMinute: 1000, presence: options.presence });
+  const dataDir = options.dataDir ?? fs.mkdtempSync(path.join(os.tmpdir(), 'boardwalk-test-'));
+  const rawApp = createApp({
+    db,
+    sqlite,
+    sessionSecret: 'test-secret',
+    signInAttemptsPerMinute: 1000,
+    presence: options.presence,
+    dataDir,
+    smtpUrl: options.smtpUrl,
+  });
   const app = asOwnPage(rawApp);
   const emails = { admin: 'admin@test.example', tester: 'tester@test.example', tester2: 'tester2@test.example', reviewer: 'reviewer@test.example' };
   return {
@@ -64,13 +78,17 @@ export async function createTestApp(options: { presence?: Presence } = {}): Prom
     app,
     rawApp,
     ids: { admin, tester, tester2, reviewer, site, job, board },
+    dataDir,
     async signIn(role) {
       const agent = request.agent(app);
       const res = await agent.post('/api/auth/sign-in').send({ email: emails[role], password });
       if (res.status !== 200) throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`);
       return agent;
     },
-    close: () => sqlite.close(),
+    close: () => {
+      sqlite.close();
+      if (!options.dataDir) fs.rmSync(dataDir, { recursive: true, force: true });
+    },
   };
 }
 
@@ -87,6 +105,8 @@ export function asOwnPage(inner: Express): Express {
     next();
   });
   outer.use(inner);
+  // What createApp left for the process (appServices: file store, mail sender) stays reachable.
+  Object.assign(outer.locals, inner.locals);
   return outer;
 }
 

@@ -13,7 +13,9 @@
 import type { CircuitFields } from '../../../shared/schemas/boards.ts';
 import { readingKeys, type CircuitKind, type ReadingKey } from '../../../shared/schemas/columns.ts';
 import type { Role } from '../../../shared/schemas/common.ts';
+import type { Company } from '../../../shared/schemas/company.ts';
 import type { Job, Site } from '../../../shared/schemas/sites.ts';
+import { bakeryEicrRecord, houseEicRecord, type DemoJobRecord } from './demo-records.ts';
 
 // ---------------------------------------------------------------------------------------------
 // Types
@@ -67,13 +69,16 @@ export interface DemoBoard {
   circuits: DemoCircuit[];
 }
 
-export type DemoJob = Pick<Job, 'kind' | 'reference' | 'visitDate' | 'limitations'> & { boards: DemoBoard[] };
+/** A demo job: its boards and its record (everything around the schedules, see demo-records.ts). */
+export type DemoJob = Pick<Job, 'kind' | 'reference' | 'visitDate' | 'limitations'> & { boards: DemoBoard[]; record: DemoJobRecord };
 
-export type DemoSite = Omit<Site, 'id' | 'contactName' | 'contactEmail' | 'version'> & { jobs: DemoJob[] };
+export type DemoSite = Omit<Site, 'id' | 'version'> & { jobs: DemoJob[] };
 
 export interface DemoScenario {
-  /** The contractor the demo people work for (printed nowhere yet; kept for the story). */
+  /** The contractor the demo people work for. */
   contractor: string;
+  /** The contractor's details as the company of the demo database (app_settings `company`). */
+  company: Company;
   users: DemoAccount[];
   /** Email of the account recorded as having typed every seeded reading. */
   typistEmail: string;
@@ -689,6 +694,8 @@ function buildBoard(spec: BoardSpec): DemoBoard {
     liveCsaMm2: circuit.live,
     cpcCsaMm2: circuit.cpc,
     maxDisconnectionS: circuit.maxDisconnectionS,
+    // A radial's cable length, as a tester records it where known (its R1+R2 is checked against it).
+    cableLengthM: circuit.kind === 'radial' || circuit.kind === 'distribution' ? circuit.lengthM : null,
     deviceStandard: circuit.device.standard,
     deviceType: circuit.device.type,
     ratingA: circuit.device.ratingA,
@@ -726,12 +733,24 @@ function buildBoard(spec: BoardSpec): DemoBoard {
 export function buildDemoScenario(): DemoScenario {
   return {
     contractor: 'Kestrel Vale Electrical Ltd',
+    company: {
+      name: 'Kestrel Vale Electrical Ltd',
+      address: '3 Ropewalk Yard, Thornleigh, TL2 5HB',
+      phone: '01632 960 427',
+      email: 'office@kestrel-vale.example.test',
+      registration: '',
+      // Continues the demo jobs' references: the next EICR of 2026 is KVE-EICR-2026-058.
+      referencePattern: 'KVE-{kind}-{yyyy}-{seq:3}',
+      logoFileId: null,
+    },
     users: demoAccounts.map((account) => ({ ...account })),
     typistEmail: 'tester@boardwalk.test',
     sites: [
       {
         client: 'Ms Rowena Penhallow',
         address: '14 Quarry Bank Road, Thornleigh, TL4 7QX',
+        contactName: 'Rowena Penhallow',
+        contactEmail: 'rowena.penhallow@example.test',
         description: 'Three-bedroom semi-detached house with garage and garden office; full rewire during refurbishment.',
         earthing: 'TN-C-S',
         nominalVoltageV: 230,
@@ -746,12 +765,15 @@ export function buildDemoScenario(): DemoScenario {
               'Insulation resistance between live conductors not measured where electronic controls could not be ' +
               'disconnected; recorded against each circuit.',
             boards: [buildBoard(houseBoard)],
+            record: houseEicRecord,
           },
         ],
       },
       {
         client: 'Corbel Bakehouse Ltd',
         address: 'Unit 6, Saltmarsh Trading Estate, Fenwick Road, Ashby Marsh, AM3 9RD',
+        contactName: 'Priya Venkatesan (facilities manager)',
+        contactEmail: 'facilities@corbel-bakehouse.example.test',
         description:
           'Craft bakery in a single-storey steel-framed unit: production floor, retail shop, goods-in, warehouse and ' +
           'first-floor offices.',
@@ -769,6 +791,7 @@ export function buildDemoScenario(): DemoScenario {
               'fabric not inspected. Refrigeration circuits tested after trading hours only. Sub-board DB-2 ' +
               '(first-floor offices) reported separately.',
             boards: [buildBoard(bakeryBoard)],
+            record: bakeryEicrRecord,
           },
         ],
       },

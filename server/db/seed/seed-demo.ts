@@ -2,7 +2,8 @@ import bcrypt from 'bcryptjs';
 import type { Insertable, Transaction } from 'kysely';
 import type { DB } from '../database.ts';
 import type { CellTable, Database } from '../types.ts';
-import { buildDemoScenario, demoPassword, type DemoBoard } from './demo-scenario.ts';
+import { jobSectionKeySchema, jobSectionSchemas, type JobSectionKey } from '../../../shared/schemas/job-record.ts';
+import { buildDemoScenario, demoPassword, type DemoBoard, type DemoJob } from './demo-scenario.ts';
 
 /** bcrypt work factor for the demo accounts. */
 const bcryptCost = 10;
@@ -46,6 +47,8 @@ export async function seedDemo(db: DB): Promise<void> {
           client: site.client,
           address: site.address,
           description: site.description,
+          contact_name: site.contactName,
+          contact_email: site.contactEmail,
           earthing: site.earthing,
           nominal_voltage_v: site.nominalVoltageV,
           ze_ohm: site.zeOhm,
@@ -67,13 +70,62 @@ export async function seedDemo(db: DB): Promise<void> {
           .returning('id')
           .executeTakeFirstOrThrow();
 
-        for (const board of job.boards) await insertBoard(trx, jobId, board, typistId);
+        const boards = new Map<string, { id: number; circuits: Map<string, number> }>();
+        for (const board of job.boards) boards.set(board.reference, await insertBoard(trx, jobId, board, typistId));
+        await insertRecord(trx, jobId, job, boards, typistId);
       }
     }
+
+    // The demo contractor's details; its pattern continues the demo jobs' references.
+    await trx
+      .insertInto('app_settings')
+      .values({ key: 'company', value: JSON.stringify(scenario.company) })
+      .onConflict((oc) => oc.column('key').doNothing())
+      .execute();
   });
 }
 
-async function insertBoard(trx: Transaction<Database>, jobId: number, board: DemoBoard, typistId: number): Promise<void> {
+/**
+ * The job's record, one row per section at version 1, like the seeded cells (the starting state,
+ * so no history rows). Each section is parsed with its schema first: demo data that does not fit
+ * the record stops the seed rather than landing.
+ */
+async function insertRecord(
+  trx: Transaction<Database>,
+  jobId: number,
+  job: DemoJob,
+  boards: ReadonlyMap<string, { id: number; circuits: ReadonlyMap<string, number> }>,
+  typistId: number,
+): Promise<void> {
+  const updatedAt = `${job.visitDate}T18:00:00.000Z`;
+  for (const [key, demoData] of Object.entries(job.record)) {
+    const section: JobSectionKey = jobSectionKeySchema.parse(key);
+    let data: unknown = demoData;
+    if (section === 'observations') {
+      data = Object.fromEntries(
+        Object.entries(job.record.observations ?? {}).map(([id, { boardReference, circuitNumber, ...observation }]) => {
+          const board = boardReference === null ? undefined : boards.get(boardReference);
+          if (boardReference !== null && !board) throw new Error(`Observation ${observation.number} names board ${boardReference}, which is not on job ${job.reference}`);
+          const circuitId = circuitNumber === null ? null : (board?.circuits.get(circuitNumber) ?? null);
+          if (circuitNumber !== null && circuitId === null) throw new Error(`Observation ${observation.number} names circuit ${circuitNumber}, which is not on ${boardReference}`);
+          return [id, { ...observation, boardId: board?.id ?? null, circuitId }];
+        }),
+      );
+    }
+    const parsed = jobSectionSchemas[section].parse(data);
+    await trx
+      .insertInto('job_sections')
+      .values({ job_id: jobId, section, data: JSON.stringify(parsed), version: 1, updated_by: typistId, updated_at: updatedAt })
+      .execute();
+  }
+}
+
+async function insertBoard(
+  trx: Transaction<Database>,
+  jobId: number,
+  board: DemoBoard,
+  typistId: number,
+): Promise<{ id: number; circuits: Map<string, number> }> {
   const { id: boardId } = await trx
     .insertInto('boards')
     .values({
@@ -112,6 +164,7 @@ async function insertBoard(trx: Transaction<Database>, jobId: number, board: Dem
         live_csa_mm2: circuit.liveCsaMm2,
         cpc_csa_mm2: circuit.cpcCsaMm2,
         max_disconnection_s: circuit.maxDisconnectionS,
+        cable_length_m: circuit.cableLengthM ?? null,
         device_standard: circuit.deviceStandard,
         device_type: circuit.deviceType,
         rating_a: circuit.ratingA,
@@ -151,4 +204,5 @@ async function insertBoard(trx: Transaction<Database>, jobId: number, board: Dem
     }
     await trx.updateTable('circuits').set({ spur_ring_id: ringId }).where('id', '=', spurId).execute();
   }
+  return { id: boardId, circuits: idByNumber };
 }

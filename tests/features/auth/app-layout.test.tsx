@@ -30,7 +30,7 @@ describe('app layout', () => {
 
     const nav = await screen.findByRole('navigation', { name: 'Main' });
     expect(nav).toHaveTextContent('Jobs');
-    expect(screen.getByRole('link', { name: 'Admin' })).toHaveAttribute('href', '/admin/users');
+    expect(screen.getByRole('link', { name: 'Admin' })).toHaveAttribute('href', '/admin');
     expect(screen.getByText('Ada Admin')).toBeInTheDocument();
     expect(screen.getByText('admin')).toBeInTheDocument();
   });

@@ -13,7 +13,11 @@ function renderJobs(initialEntry = '/jobs') {
 }
 
 /** Board references in the order the page shows them. */
-const shownBoards = () => screen.queryAllByRole('link').map((link) => link.textContent);
+const shownBoards = () =>
+  screen
+    .queryAllByRole('link')
+    .filter((link) => link.closest('tr'))
+    .map((link) => link.textContent);
 
 beforeEach(() => {
   stubApi({

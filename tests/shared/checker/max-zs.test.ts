@@ -37,6 +37,14 @@ describe('maxZs for BS EN 60898 circuit-breakers and BS EN 61009 RCBOs', () => {
     }
   });
 
+  it('names the standard of the device: an RCBO cites BS EN 61009-1, a circuit-breaker BS EN 60898-1', () => {
+    const rcbo = maxZs({ standard: 'BS EN 61009-1', type: 'B', ratingA: 32, disconnectionTimeS: 0.4 });
+    const mcb = maxZs({ standard: '60898', type: 'B', ratingA: 32, disconnectionTimeS: 0.4 });
+    expect(rcbo.ok && rcbo.source).toContain('BS EN 61009-1');
+    expect(rcbo.ok && rcbo.source).not.toContain('60898');
+    expect(mcb.ok && mcb.source).toContain('BS EN 60898-1');
+  });
+
   it('rounds half-up in exact decimals where binary floats round down', () => {
     // 0.95 × 230 / (5 × 76) is exactly 0.575 on paper; in doubles it rounds to 0.57.
     expect(Math.round(((0.95 * 230) / 380) * 100) / 100).toBe(0.57);
@@ -79,7 +87,7 @@ const fuseRows: Array<{ standard: string; ratingA: number; at04: number; at5: nu
       [5, 9.93, 14.6],
       [16, 2.3, 3.9],
       [20, 1.93, 3.2],
-      [32, 0.91, 1.6],
+      [32, 0.87, 1.6], // 0.87: the pre-2018 0.91 × Cmin 0.95 [from memory], see reference-data.ts
       [45, 0.57, 1.0],
     ] as const
   ).map(([ratingA, at04, at5]) => ({ standard: 'BS 88-3', ratingA, at04, at5, source: 'BS 7671:2018 Tables 41.2 / 41.4, BS 88-3 (public reference pages)' })),

@@ -55,22 +55,23 @@ const cases: Case[] = [
   },
   {
     name: 'a BS 88-3 32 A fuse at 0.4 s',
-    input: board([radial({ deviceStandard: 'BS 88-3', deviceType: '', ratingA: 32, cells: { ...cleanRadialCells, r1PlusR2: '0.70', zs: '1.00' } })]),
+    input: board([radial({ deviceStandard: 'BS 88-3', deviceType: '', ratingA: 32, liveCsaMm2: 4, cells: { ...cleanRadialCells, r1PlusR2: '0.70', zs: '1.00' } })]),
     codes: ['zs-over-max'],
-    // BS 7671:2018 Table 41.2, BS 88-3 32 A: 0.91 Ω (public reference pages)
-    expect: { code: 'zs-over-max', limit: '≤ 0.91 Ω', sourceIncludes: 'Table 41.2' },
+    // BS 7671:2018 Table 41.2, BS 88-3 32 A: 0.87 Ω — the pre-2018 0.91 Ω × Cmin 0.95 [from memory; see reference-data.ts]
+    expect: { code: 'zs-over-max', limit: '≤ 0.87 Ω', sourceIncludes: 'Table 41.2' },
   },
   {
     name: 'TT with a 30 mA RCD: Zs judged against 50 V / IΔn',
     input: board([radial({ cells: { ...cleanRadialCells, r1PlusR2: '0.30', zs: '>200' } })], { site: { earthing: 'TT' }, board: { zdbOhm: null } }),
-    codes: [],
-    // BS 7671:2018 Table 41.5, 50 V / 30 mA = 1667 Ω [from memory]: >200 Ω is within it
-    expect: { code: '' },
+    codes: ['zs-tt-electrode-unstable'],
+    // BS 7671:2018 411.5.3 / Table 41.5, 50 V / 30 mA = 1667 Ω [from memory]: >200 Ω is within it, so no
+    // fault; above 200 Ω the electrode may not be stable (note to Table 41.5 [from memory]): a note only
+    expect: { code: 'zs-tt-electrode-unstable', severity: 'note', limit: '≤ 200 Ω (for a stable electrode)', sourceIncludes: 'Table 41.5' },
   },
   {
     name: 'TT with a 100 mA RCD and a broken earth path',
     input: board([radial({ rcdRatedResidualMa: 100, cells: { ...cleanRadialCells, zs: '>200' } })], { site: { earthing: 'TT' }, board: { zdbOhm: null } }),
-    codes: [],
+    codes: ['zs-tt-electrode-unstable'],
     // 50 V / 100 mA = 500 Ω (BS 7671:2018 Table 41.5 [from memory]): >200 cannot be judged over it
     expect: { code: '' },
   },
@@ -170,8 +171,31 @@ const cases: Case[] = [
       radial({ id: 3, kind: 'spur', spurRingId: 2, spurOriginPoint: 'socket 5', spurLengthM: 5, cells: { ...cleanRadialCells, r1PlusR2: '0.60', zs: '0.93' } }),
     ]),
     codes: ['spur-r1r2-unexpected'],
+    // "socket 5" does not say where socket 5 is: the ring reads r1·r2/(r1+r2) = 0.3226 … (r1+r2)/4 = 0.3425 Ω
+    // (two parallel paths), + 5 m × 19.51 mΩ/m (IEC 60228) = 0.0976 → 0.420–0.440 Ω, ± 0.05 Ω → 0.37–0.49 Ω
+    expect: { code: 'spur-r1r2-unexpected', severity: 'warning', limit: '0.37–0.49 Ω', sourceIncludes: 'IEC 60228', messageIncludes: 'wherever socket 5 is' },
+  },
+  {
+    name: 'spur R1+R2 far from its length and an origin given as a fraction of the ring',
+    input: board([
+      ring({ id: 2 }),
+      radial({ id: 3, kind: 'spur', spurRingId: 2, spurOriginPoint: '5/11', spurLengthM: 5, cells: { ...cleanRadialCells, r1PlusR2: '0.60', zs: '0.93' } }),
+    ]),
+    codes: ['spur-r1r2-unexpected'],
     // ring at 5/11 by [r1·r2 + x(1−x)(r1−r2)²]/(r1+r2) = 0.3423 Ω, + 5 m × 19.51 mΩ/m (IEC 60228) = 0.4399 → 0.44 Ω
     expect: { code: 'spur-r1r2-unexpected', severity: 'warning', limit: '≈ 0.44 Ω (± 0.05 Ω)', sourceIncludes: 'IEC 60228' },
+  },
+  {
+    name: 'a spur from "socket 2" of a 2.5/1.0 ring, wherever socket 2 is, fits the ring range',
+    input: board([
+      ring({ id: 2, cpcCsaMm2: 1, cells: { ...cleanRingCells, ringR1: '0.50', ringRn: '0.50', ringR2: '1.22', r1PlusR2: '0.43', zs: '0.76' } }),
+      radial({ id: 3, kind: 'spur', spurRingId: 2, spurOriginPoint: 'socket 2', spurLengthM: 3, cells: { ...cleanRadialCells, r1PlusR2: '0.40', zs: '0.74' } }),
+    ]),
+    codes: [],
+    // ring r1 0.50, r2 1.22 (r2/r1 ≈ 18.1/7.41, IEC 60228) reads 0.355 … 0.43 Ω at a socket (two parallel paths);
+    // + 3 m of 2.5/1.5 × 19.51 mΩ/m = 0.059 → 0.41–0.49 Ω ± 0.05: 0.40 fits (a socket near the board). Taking
+    // "socket 2 of 10" as 2/11 of the ring would expect 0.400 + 0.059 = 0.46 ± 0.05 Ω and call 0.40 wrong.
+    expect: { code: '' },
   },
   {
     name: 'more spurs than points on the ring',
@@ -191,18 +215,19 @@ const cases: Case[] = [
     expect: { code: 'ir-below-minimum', severity: 'error', columns: ['irLiveEarth', 'irTestVoltage'], limit: '≥ 1.0 MΩ at 500 V', sourceIncludes: 'BS 7671:2018 Table 64' },
   },
   {
-    name: 'IR limit follows the test voltage: 0.8 MΩ at 250 V passes Table 64, is only low',
+    name: 'a 250 V test on an ordinary circuit still needs 1.0 MΩ: 0.8 MΩ fails, and the SELV/PELV value is named',
     input: board([radial({ cells: { ...cleanRadialCells, irTestVoltage: '250', irLiveEarth: '0.8' } })]),
-    codes: ['ir-below-2-megohm'],
-    // BS 7671:2018 Table 64: 250 V DC → ≥ 0.5 MΩ; below 2 MΩ worth investigating (common practice)
-    expect: { code: 'ir-below-2-megohm', severity: 'note', limit: '≥ 2 MΩ', sourceIncludes: 'common practice' },
+    codes: ['ir-below-minimum'],
+    // BS 7671:2018 643.3.3 [from memory]: a circuit up to 500 V tested at 250 V (equipment that cannot be
+    // disconnected) needs ≥ 1 MΩ; Table 64's 0.5 MΩ at 250 V is for SELV and PELV only
+    expect: { code: 'ir-below-minimum', severity: 'error', limit: '≥ 1.0 MΩ at 250 V', sourceIncludes: '643.3.3', messageIncludes: 'SELV or PELV circuit, 0.5 MΩ applies' },
   },
   {
     name: 'IR below 0.5 MΩ at 250 V',
     input: board([radial({ cells: { ...cleanRadialCells, irTestVoltage: '250', irLiveLive: '0.4' } })]),
     codes: ['ir-below-minimum'],
-    // BS 7671:2018 Table 64: SELV/PELV, 250 V DC → ≥ 0.5 MΩ
-    expect: { code: 'ir-below-minimum', limit: '≥ 0.5 MΩ at 250 V', sourceIncludes: 'Table 64' },
+    // below even the SELV/PELV 0.5 MΩ of BS 7671:2018 Table 64: no SELV note; limit 1 MΩ (643.3.3 [from memory])
+    expect: { code: 'ir-below-minimum', limit: '≥ 1.0 MΩ at 250 V', sourceIncludes: 'Table 64' },
   },
   {
     name: 'RCD time over 300 ms for a general type',
@@ -235,14 +260,16 @@ const cases: Case[] = [
   {
     name: 'RCD fitted, time N/A',
     input: board([radial({ cells: { ...cleanRadialCells, rcdTimeMs: 'N/A' } })]),
-    codes: ['rcd-time-missing'],
-    expect: { code: 'rcd-time-missing', severity: 'error', columns: ['rcdTimeMs'], messageIncludes: 'N/A' },
+    codes: ['na-where-required'],
+    // an RCD is fitted, so its time applies (BS 7671:2018+A2 643.7 [from memory]): N/A is an error about a value
+    expect: { code: 'na-where-required', severity: 'error', columns: ['rcdTimeMs'], messageIncludes: 'N/A', sourceIncludes: '61009-1' },
   },
   {
     name: 'RCD fitted, time not recorded',
     input: board([radial({ cells: { ...cleanRadialCells, rcdTimeMs: '' } })]),
     codes: ['rcd-time-missing'],
-    expect: { code: 'rcd-time-missing', messageIncludes: 'not recorded' },
+    // not typed yet: to do, not a fault
+    expect: { code: 'rcd-time-missing', severity: 'todo', messageIncludes: 'Not recorded yet' },
   },
   {
     name: 'RCD time without an RCD type',
@@ -315,7 +342,7 @@ const cases: Case[] = [
     name: 'cells missing',
     input: board([radial({ cells: { ...cleanRadialCells, polarity: '', zs: '' } })]),
     codes: ['cells-missing'],
-    expect: { code: 'cells-missing', severity: 'error', columns: ['polarity', 'zs'] },
+    expect: { code: 'cells-missing', severity: 'todo', columns: ['polarity', 'zs'] },
   },
   {
     name: 'AFDD fitted, its button not recorded',
@@ -338,7 +365,7 @@ const cases: Case[] = [
   {
     name: 'every reading N/A or LIM',
     input: board([radial({ cells: { r1PlusR2: 'N/A', irTestVoltage: 'N/A', irLiveLive: { text: 'LIM', reason: 'no access' }, irLiveEarth: 'N/A', polarity: 'N/A', zs: 'N/A', rcdTimeMs: 'N/A', rcdButton: 'N/A' } })]),
-    codes: ['circuit-untested', 'na-where-required', 'rcd-time-missing'],
+    codes: ['circuit-untested', 'na-where-required'],
     expect: { code: 'circuit-untested', severity: 'warning' },
   },
   {

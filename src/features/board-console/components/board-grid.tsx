@@ -27,12 +27,15 @@ export const severityCellClass: Readonly<Record<Severity, string>> = {
   error: 'bg-danger-soft text-danger',
   warning: 'bg-amber-50 text-amber-900',
   note: 'bg-sky-50 text-sky-900',
+  // A reading still to type: a quiet mark, so real faults stand out on a half-typed board.
+  todo: 'text-muted',
 };
 
 export const severityBadgeClass: Readonly<Record<Severity, string>> = {
   error: 'bg-danger text-white',
   warning: 'bg-amber-500 text-black',
   note: 'bg-sky-700 text-white',
+  todo: 'border border-line-strong text-muted',
 };
 
 export interface BoardGridProps {

@@ -31,7 +31,11 @@ export const ConsoleHeader = memo(function ConsoleHeader({ board, site, job, pre
           Board <span className="font-mono">{board.reference}</span>
         </h1>
         <span className="truncate text-muted">
-          {site.client} · {site.address} · {job.kind} {job.reference}
+          {site.client} · {site.address} ·{' '}
+          {/* A plain link: the header is also rendered outside a router (console tests). */}
+          <a href={`/jobs/${job.id}`} className="text-accent underline-offset-2 hover:underline" aria-label={`Job ${job.kind} ${job.reference}: the certificate or report`}>
+            {job.kind} {job.reference}
+          </a>
         </span>
         <span
           className={`rounded px-1.5 py-px text-xs font-semibold ${locked ? 'bg-locked-soft text-locked' : 'bg-ok-soft text-ok'}`}

@@ -1,7 +1,7 @@
 import { memo, useMemo, useRef, useState, type KeyboardEvent, type RefObject } from 'react';
-import { columnByKey, isDetailKey, isReadingKey } from '../../../../shared/schemas/columns.ts';
-import { severities, type Finding, type Severity } from '../../../../shared/schemas/findings.ts';
-import { severitySymbol, severityWord, sortFindings } from '../grid/findings-index.ts';
+import { columnByKey, columns, isDetailKey, isReadingKey } from '../../../../shared/schemas/columns.ts';
+import type { Finding, Severity } from '../../../../shared/schemas/findings.ts';
+import { severitySymbol, severityWord, sortFindings, toDoByColumn, valueSeverities } from '../grid/findings-index.ts';
 import { severityBadgeClass } from './board-grid.tsx';
 
 export interface FindingsPanelProps {
@@ -19,20 +19,31 @@ function columnWords(finding: Finding): string {
   return labels.join(', ');
 }
 
+const columnOrder: readonly string[] = columns.map((c) => c.key);
+
+function columnLabel(key: string): string {
+  return isReadingKey(key) || isDetailKey(key) ? columnByKey[key].label : 'Circuit';
+}
+
 /**
- * Every finding of the checker beside the grid, worst first, filterable by severity. Each finding
- * is a button: Enter (or a click) puts the cursor on its cell and the focus back in the grid.
- * ↑/↓ move between findings.
+ * Every finding of the checker beside the grid: the findings about values first, worst first and
+ * filterable by severity; then the readings not yet recorded, as a count per column (a board being
+ * typed has hundreds of them, and listing each would bury the faults). Each finding and each count
+ * is a button: Enter (or a click) puts the cursor on its cell (for a count, the first circuit
+ * lacking that reading) and the focus back in the grid. ↑/↓ move between them.
  */
 export const FindingsPanel = memo(function FindingsPanel({ findings, circuitOrder, circuitNumbers, onJump, listRef }: FindingsPanelProps) {
-  const [shown, setShown] = useState<ReadonlySet<Severity>>(() => new Set(severities));
+  const [shown, setShown] = useState<ReadonlySet<Severity>>(() => new Set(valueSeverities));
   const counts = useMemo(() => {
-    const c: Record<Severity, number> = { error: 0, warning: 0, note: 0 };
+    const c: Record<Severity, number> = { error: 0, warning: 0, note: 0, todo: 0 };
     for (const f of findings) c[f.severity] += 1;
     return c;
   }, [findings]);
   const sorted = useMemo(() => sortFindings(findings, circuitOrder), [findings, circuitOrder]);
-  const visible = sorted.filter((f) => shown.has(f.severity));
+  const toDo = useMemo(() => toDoByColumn(findings, circuitOrder, columnOrder), [findings, circuitOrder]);
+  const toDoCells = useMemo(() => toDo.reduce((sum, c) => sum + c.count, 0), [toDo]);
+  const visible = sorted.filter((f) => f.severity !== 'todo' && shown.has(f.severity));
+  const valueCount = findings.length - counts.todo;
   const headingId = useRef(`findings-heading`).current;
 
   const toggle = (severity: Severity) =>
@@ -58,10 +69,10 @@ export const FindingsPanel = memo(function FindingsPanel({ findings, circuitOrde
     <section aria-labelledby={headingId} className="flex min-h-0 w-80 shrink-0 flex-col border-l border-line bg-surface">
       <div className="border-b border-line px-2 py-1.5">
         <h2 id={headingId} className="text-sm font-semibold">
-          Findings <span className="font-normal text-muted">({findings.length})</span>
+          Findings <span className="font-normal text-muted">({valueCount}{toDoCells > 0 ? ` · ${toDoCells} readings to do` : ''})</span>
         </h2>
         <div role="group" aria-label="Show findings of severity" className="mt-1 flex gap-1">
-          {severities.map((severity) => (
+          {valueSeverities.map((severity) => (
             <button
               key={severity}
               type="button"
@@ -77,10 +88,15 @@ export const FindingsPanel = memo(function FindingsPanel({ findings, circuitOrde
           ))}
         </div>
       </div>
-      {visible.length === 0 ? (
-        <p className="px-2 py-3 text-sm text-muted">{findings.length === 0 ? 'No findings: every value checked is within its limit.' : 'No finding of the severities shown.'}</p>
+      {visible.length === 0 && toDo.length === 0 ? (
+        <p className="px-2 py-3 text-sm text-muted">{valueCount === 0 ? 'No findings: every value checked is within its limit.' : 'No finding of the severities shown.'}</p>
       ) : (
         <ul ref={listRef} aria-label="Findings" onKeyDown={onListKeyDown} className="min-h-0 flex-1 overflow-auto">
+          {visible.length === 0 && (
+            <li className="border-b border-line px-2 py-2 text-sm text-muted">
+              {valueCount === 0 ? 'No fault in the values typed so far.' : 'No finding of the severities shown.'}
+            </li>
+          )}
           {visible.map((finding) => {
             const number = finding.circuitId === null ? null : circuitNumbers.get(finding.circuitId);
             const where = number ? `Circuit ${number}${finding.columns.length ? ` · ${columnWords(finding)}` : ''}` : 'Whole board';
@@ -114,6 +130,34 @@ export const FindingsPanel = memo(function FindingsPanel({ findings, circuitOrde
               </li>
             );
           })}
+          {toDo.length > 0 && (
+            <li aria-label="Readings not recorded yet" className="border-b border-line">
+              <h3 className="px-2 pt-2 pb-1 text-xs font-semibold text-muted">
+                <span aria-hidden="true" className={`mr-1 inline-flex h-3.5 min-w-3.5 items-center justify-center rounded px-0.5 text-[10px] font-bold ${severityBadgeClass.todo}`}>
+                  {severitySymbol.todo}
+                </span>
+                Not recorded yet ({toDoCells})
+              </h3>
+              <ul className="pb-1">
+                {toDo.map((entry) => (
+                  <li key={entry.column}>
+                    <button
+                      type="button"
+                      data-finding=""
+                      onClick={() => onJump({ ...entry.first, columns: entry.column ? [entry.column] : [] })}
+                      className="flex w-full justify-between gap-2 px-2 py-0.5 text-left text-sm hover:bg-accent-soft focus:bg-accent-soft focus:outline-none"
+                    >
+                      <span>{columnLabel(entry.column)}</span>
+                      <span className="text-muted">
+                        {entry.count} {entry.count === 1 ? 'circuit' : 'circuits'}
+                        <span className="sr-only"> still to record; go to the first</span>
+                      </span>
+                    </button>
+                  </li>
+                ))}
+              </ul>
+            </li>
+          )}
         </ul>
       )}
     </section>

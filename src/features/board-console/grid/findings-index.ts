@@ -7,12 +7,19 @@
  */
 import type { Finding, Severity } from '../../../../shared/schemas/findings.ts';
 
-export const severityRank: Readonly<Record<Severity, number>> = { error: 3, warning: 2, note: 1 };
+/**
+ * Worst first. A reading not yet recorded (`todo`) ranks below every finding about a value, so a
+ * cell or a circuit shows its real fault before the fact that something else is still to type.
+ */
+export const severityRank: Readonly<Record<Severity, number>> = { error: 4, warning: 3, note: 2, todo: 1 };
 
 /** Symbols shown beside the colour, so no finding is told by colour alone. */
-export const severitySymbol: Readonly<Record<Severity, string>> = { error: '✕', warning: '!', note: 'i' };
+export const severitySymbol: Readonly<Record<Severity, string>> = { error: '✕', warning: '!', note: 'i', todo: '○' };
 
-export const severityWord: Readonly<Record<Severity, string>> = { error: 'Error', warning: 'Warning', note: 'Note' };
+export const severityWord: Readonly<Record<Severity, string>> = { error: 'Error', warning: 'Warning', note: 'Note', todo: 'To do' };
+
+/** The severities of findings about values, as the findings list filters them (todo is counted apart). */
+export const valueSeverities = ['error', 'warning', 'note'] as const satisfies readonly Severity[];
 
 export interface CellFindings {
   worst: Finding;
@@ -85,21 +92,47 @@ export function indexFindings(findings: readonly Finding[], previous: FindingsIn
   return { byCircuit, board, signatures };
 }
 
-/** Orders findings worst first, then by the order of their circuits on the board. */
 /**
- * Findings that only say a reading is not recorded yet. They block locking as errors do, but on a
- * board being typed there are many of them, so within a severity they come after the findings
- * about values that were typed: a slip just made shows near the top, not below fifty blanks.
+ * Orders findings worst first, then by the order of their circuits on the board. Readings not yet
+ * recorded (`todo`) come after every finding about a value: on a board being typed there are many
+ * of them, and a slip just made must show near the top, not below fifty blanks.
  */
-const notYetRecordedCodes: ReadonlySet<string> = new Set(['cells-missing', 'rcd-time-missing', 'circuit-untested']);
-
 export function sortFindings(findings: readonly Finding[], circuitOrder: readonly number[]): Finding[] {
   const position = new Map(circuitOrder.map((id, i) => [id, i]));
-  const blank = (f: Finding) => (notYetRecordedCodes.has(f.code) ? 1 : 0);
   return [...findings].sort(
     (a, b) =>
       severityRank[b.severity] - severityRank[a.severity] ||
-      blank(a) - blank(b) ||
       (a.circuitId === null ? -1 : (position.get(a.circuitId) ?? 1e9)) - (b.circuitId === null ? -1 : (position.get(b.circuitId) ?? 1e9)),
   );
+}
+
+/** Readings not yet recorded, counted per column, with the first circuit (in board order) lacking each. */
+export interface ColumnToDo {
+  column: string;
+  count: number;
+  /** The first todo finding on this column, in board order: where a jump goes. */
+  first: Finding;
+}
+
+/**
+ * Counts the `todo` findings per column, in the order of `columnOrder` (columns not in it last).
+ * A finding naming several columns counts once in each.
+ */
+export function toDoByColumn(findings: readonly Finding[], circuitOrder: readonly number[], columnOrder: readonly string[]): ColumnToDo[] {
+  const position = new Map(circuitOrder.map((id, i) => [id, i]));
+  const at = (f: Finding) => (f.circuitId === null ? -1 : (position.get(f.circuitId) ?? 1e9));
+  const byColumn = new Map<string, ColumnToDo>();
+  for (const f of findings) {
+    if (f.severity !== 'todo') continue;
+    for (const column of f.columns.length > 0 ? f.columns : ['']) {
+      const entry = byColumn.get(column);
+      if (!entry) byColumn.set(column, { column, count: 1, first: f });
+      else {
+        entry.count += 1;
+        if (at(f) < at(entry.first)) entry.first = f;
+      }
+    }
+  }
+  const rank = new Map(columnOrder.map((key, i) => [key, i]));
+  return [...byColumn.values()].sort((a, b) => (rank.get(a.column) ?? 1e9) - (rank.get(b.column) ?? 1e9) || (a.column < b.column ? -1 : 1));
 }

@@ -6,7 +6,8 @@ export interface JobListFilters {
 
 /**
  * Query keys of the jobs feature, general → specific: invalidating `jobsKeys.all` (or `lists()`)
- * refreshes every jobs list whatever its filters.
+ * refreshes every jobs list whatever its filters. Everything about jobs lives under `['jobs']`, so
+ * one invalidation after any change to a site, job or board refreshes lists and job screens alike.
  */
 export const jobsKeys = {
   all: ['jobs'] as const,

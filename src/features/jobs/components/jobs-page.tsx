@@ -1,9 +1,19 @@
-import { useEffect, useId, useMemo, useRef, useState, type KeyboardEvent, type MouseEvent } from 'react';
+import { useEffect, useId, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent, type MouseEvent } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { tinykeys } from 'tinykeys';
 import type { BoardSummary } from '../../../../shared/schemas/boards.ts';
 import type { Job } from '../../../../shared/schemas/sites.ts';
+import { CommandPalette } from '../../../components/command-palette.tsx';
+import { FormDialog } from '../../../components/form-dialog.tsx';
+import { KeysOverlay, ShortcutKeys } from '../../../components/keys-overlay.tsx';
+import { createGeneralCommands, OPEN_PALETTE_KEY } from '../../../lib/commands/general-commands.ts';
+import { createRegistry } from '../../../lib/commands/registry.ts';
+import { useCommandKeys } from '../../../lib/commands/use-command-keys.ts';
 import { useJobs, type SiteWithJobs } from '../api/get-jobs.ts';
+import { createJobsCommands, NEW_BOARD_KEY, NEW_JOB_KEY, NEW_SITE_KEY, type JobsContext, type JobsForm } from '../commands.ts';
+import { NewBoardForm } from './forms/new-board-form.tsx';
+import { NewJobForm } from './forms/new-job-form.tsx';
+import { SiteForm } from './forms/site-form.tsx';
 import { searchJobs, visibleBoards } from '../search-jobs.ts';
 import { BoardProgress, readingCellCount } from './board-progress.tsx';
 import { BoardStateLabel } from './board-state-label.tsx';
@@ -48,11 +58,45 @@ export function JobsPage() {
   const [activeBoardId, setActiveBoardId] = useState<number | null>(null);
   const searchRef = useRef<HTMLInputElement>(null);
   const hintId = useId();
+  const [form, setForm] = useState<JobsForm | null>(null);
+  const [palette, setPalette] = useState<{ open: boolean; commandId?: string }>({ open: false });
+  const [keysOpen, setKeysOpen] = useState(false);
+  const [notice, setNotice] = useState('');
 
+  const tree = jobs.data ?? [];
   const shown = useMemo(() => searchJobs(jobs.data ?? [], search), [jobs.data, search]);
   const boards = useMemo(() => visibleBoards(shown), [shown]);
   // A board hidden by the search is no longer the chosen one.
   const activeBoard = boards.find((b) => b.id === activeBoardId) ?? null;
+
+  const ctx: JobsContext = {
+    loaded: jobs.isSuccess,
+    tree,
+    shown,
+    activeBoard,
+    openForm: (next) => {
+      setNotice('');
+      setForm(next);
+    },
+    openJob: (jobId) => void navigate(`/jobs/${jobId}`),
+  };
+  const ctxRef = useRef<JobsContext | null>(null);
+  useLayoutEffect(() => {
+    ctxRef.current = ctx;
+  });
+  const registry = useMemo(
+    () =>
+      createRegistry<JobsContext>([
+        ...createGeneralCommands<JobsContext>({ openPalette: () => setPalette({ open: true }), showKeys: () => setKeysOpen(true) }),
+        ...createJobsCommands(() => ctxRef.current),
+      ]),
+    [],
+  );
+  useCommandKeys(registry, ctx, {
+    enabled: !palette.open && !keysOpen && form === null,
+    onNeedsArgs: (command) => setPalette({ open: true, commandId: command.id }),
+    onUnavailable: (command, reason) => setNotice(`${command.label}: ${reason}.`),
+  });
 
   useEffect(
     () =>
@@ -152,9 +196,26 @@ export function JobsPage() {
           board · <kbd className="font-mono">Enter</kbd> opens it · <kbd className="font-mono">Esc</kbd> clears
         </p>
       </div>
+      <p className="flex flex-wrap items-center gap-x-4 gap-y-1 text-xs text-muted">
+        <span className="inline-flex items-center gap-1">
+          <ShortcutKeys shortcut={NEW_SITE_KEY} /> new site
+        </span>
+        <span className="inline-flex items-center gap-1">
+          <ShortcutKeys shortcut={NEW_JOB_KEY} /> new job
+        </span>
+        <span className="inline-flex items-center gap-1">
+          <ShortcutKeys shortcut={NEW_BOARD_KEY} /> new board
+        </span>
+        <span className="inline-flex items-center gap-1">
+          <ShortcutKeys shortcut={OPEN_PALETTE_KEY} /> every command
+        </span>
+      </p>
 
       <p role="status" className="sr-only">
         {activeBoard ? describeBoard(activeBoard) : ''}
+      </p>
+      <p aria-live="polite" className="text-muted empty:hidden">
+        {notice}
       </p>
 
       {jobs.isPending && <p className="text-muted">Loading jobs…</p>}
@@ -179,9 +240,95 @@ export function JobsPage() {
           onRowClick={handleRowClick}
         />
       ))}
+
+      {form && (
+        <JobsFormDialog
+          form={form}
+          tree={tree}
+          onClose={() => setForm(null)}
+          onSiteAdded={(siteId, client) => {
+            // The next thing after a new site is its first job.
+            setNotice(`Site ${client} added.`);
+            setForm({ kind: 'new-job', siteId });
+          }}
+          onSiteSaved={(client) => {
+            setForm(null);
+            setNotice(`Site ${client} saved.`);
+          }}
+          onJobCreated={(job) => void navigate(`/jobs/${job.id}`, { state: { notice: `Job ${job.kind} ${job.reference} started.` } })}
+          onBoardCreated={(board) => void navigate(`/boards/${board.id}`)}
+        />
+      )}
+      <CommandPalette
+        open={palette.open}
+        commandId={palette.commandId}
+        onOpenChange={(open) => setPalette({ open })}
+        registry={registry}
+        ctx={ctx}
+      />
+      <KeysOverlay open={keysOpen} onOpenChange={setKeysOpen} registry={registry} ctx={ctx} sections={[jobsListKeys]} />
     </div>
   );
 }
+
+const jobsListKeys = {
+  title: 'Jobs list',
+  rows: [
+    { label: 'Put the cursor in the search', keys: ['/'] },
+    { label: 'Choose the next or previous board', keys: ['ArrowDown', 'ArrowUp'] },
+    { label: 'Open the chosen board', keys: ['Enter'] },
+    { label: 'Clear the search', keys: ['Escape'] },
+  ],
+};
+
+/** The form the page's commands open, in a dialog. */
+export function JobsFormDialog({
+  form,
+  tree,
+  onClose,
+  onSiteAdded,
+  onSiteSaved,
+  onJobCreated,
+  onBoardCreated,
+}: {
+  form: JobsForm;
+  tree: readonly SiteWithJobs[];
+  onClose: () => void;
+  onSiteAdded: (siteId: number, client: string) => void;
+  onSiteSaved: (client: string) => void;
+  onJobCreated: (job: Job) => void;
+  onBoardCreated: (board: { id: number; reference: string }) => void;
+}) {
+  switch (form.kind) {
+    case 'new-site':
+      return (
+        <FormDialog title="New site" onClose={onClose}>
+          <SiteForm onSaved={(site) => onSiteAdded(site.id, site.client)} />
+        </FormDialog>
+      );
+    case 'edit-site': {
+      const site = tree.find((entry) => entry.site.id === form.siteId)?.site;
+      return (
+        <FormDialog title={site ? `Edit site ${site.client}` : 'Edit site'} onClose={onClose}>
+          {site ? <SiteForm key={site.id} site={site} onSaved={(saved) => onSiteSaved(saved.client)} /> : <p>That site is no longer there.</p>}
+        </FormDialog>
+      );
+    }
+    case 'new-job':
+      return (
+        <FormDialog title="New job" onClose={onClose}>
+          <NewJobForm key={form.siteId ?? 'any'} tree={tree} siteId={form.siteId} onCreated={onJobCreated} />
+        </FormDialog>
+      );
+    case 'new-board':
+      return (
+        <FormDialog title="New board" onClose={onClose}>
+          <NewBoardForm tree={tree} jobId={form.jobId} onCreated={onBoardCreated} />
+        </FormDialog>
+      );
+  }
+}
+
 
 function SiteSection({
   entry,
@@ -206,7 +353,9 @@ function SiteSection({
             <abbr title={jobKindNames[job.kind]} className="rounded bg-accent-soft px-1.5 text-xs font-semibold text-accent no-underline">
               {job.kind}
             </abbr>
-            <span className="font-medium">{job.reference}</span>
+            <Link to={`/jobs/${job.id}`} className="font-medium text-accent underline-offset-2 hover:underline" aria-label={`Job ${job.kind} ${job.reference}`}>
+              {job.reference}
+            </Link>
             <span className="text-muted">visited {formatVisitDate(job.visitDate)}</span>
           </h3>
           {boards.length === 0 ? (

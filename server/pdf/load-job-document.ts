@@ -1,0 +1,151 @@
+import type { Board, Circuit } from '../../shared/schemas/boards.ts';
+import { companySchema, defaultCompany, type Company } from '../../shared/schemas/company.ts';
+import {
+  blankSection,
+  jobSectionKeys,
+  jobSectionSchemas,
+  nextInspectionDate,
+  overallAssessment,
+  type JobRecord,
+  type JobSectionKey,
+  type OverallAssessment,
+} from '../../shared/schemas/job-record.ts';
+import type { Job, Site } from '../../shared/schemas/sites.ts';
+import { loadBoard, loadCircuits } from '../db/boards.ts';
+import type { DB } from '../db/database.ts';
+import { toJob, toSite } from '../db/mappers.ts';
+import type { SignatureRow } from '../db/types.ts';
+import { userNames } from '../db/users.ts';
+import { readStoredFile } from './stored-files.ts';
+
+/** An image to place in the document (PNG or JPEG bytes, which pdfkit embeds as they are). */
+export interface DocumentImage {
+  bytes: Buffer;
+  mime: string;
+}
+
+export interface DocumentSignature {
+  role: SignatureRow['role'];
+  name: string;
+  signedAt: string;
+  signedBy: string;
+  /** Null when the image cannot be read or is not PNG/JPEG (the page says so). */
+  image: DocumentImage | null;
+}
+
+export interface DocumentAcceptance {
+  boardReference: string | null;
+  code: string;
+  message: string;
+  reason: string;
+  acceptedBy: string;
+  acceptedAt: string;
+}
+
+/** Everything an issued document shows, gathered from the database in one place. */
+export interface JobDocument {
+  job: Job;
+  site: Site;
+  record: JobRecord;
+  boards: { board: Board; circuits: Circuit[] }[];
+  assessment: { assessment: OverallAssessment; reason: string };
+  /** The recommended date of the next inspection, or null when no interval is given. */
+  nextInspection: string | null;
+  signatures: DocumentSignature[];
+  company: Company;
+  logo: DocumentImage | null;
+  acceptances: DocumentAcceptance[];
+}
+
+const embeddable = new Set(['image/png', 'image/jpeg']);
+
+/**
+ * Reads a job's record: every section, parsed against its schema and filled out with the blank
+ * section where the stored one lacks fields (a section never written is blank, version 0).
+ */
+export async function loadJobRecord(db: DB, jobId: number): Promise<JobRecord> {
+  const rows = await db.selectFrom('job_sections').selectAll().where('job_id', '=', jobId).execute();
+  const stored = new Map(rows.map((row) => [row.section, row]));
+  const record = {} as Record<JobSectionKey, { data: unknown; version: number }>;
+  for (const key of jobSectionKeys) {
+    const row = stored.get(key);
+    const blank = blankSection(key);
+    let data: unknown = blank;
+    if (row) {
+      const parsed = jobSectionSchemas[key].safeParse(JSON.parse(row.data));
+      if (parsed.success) {
+        data = Array.isArray(blank) || typeof blank !== 'object' || blank === null ? parsed.data : { ...blank, ...(parsed.data as object) };
+      }
+    }
+    record[key] = { data, version: row?.version ?? 0 };
+  }
+  return record as JobRecord;
+}
+
+/** Loads every part of a job's document. Undefined when the job does not exist. */
+export async function loadJobDocument(db: DB, jobId: number, dataDir: string): Promise<JobDocument | undefined> {
+  const jobRow = await db.selectFrom('jobs').selectAll().where('id', '=', jobId).executeTakeFirst();
+  if (!jobRow) return undefined;
+  const siteRow = await db.selectFrom('sites').selectAll().where('id', '=', jobRow.site_id).executeTakeFirstOrThrow();
+  const job = toJob(jobRow);
+  const record = await loadJobRecord(db, jobId);
+  const names = await userNames(db);
+
+  const boardRows = await db.selectFrom('boards').select(['id']).where('job_id', '=', jobId).orderBy('id').execute();
+  const boards: JobDocument['boards'] = [];
+  for (const { id } of boardRows) {
+    const board = await loadBoard(db, id);
+    if (board) boards.push({ board, circuits: await loadCircuits(db, id) });
+  }
+  const boardReference = new Map(boards.map((b) => [b.board.id, b.board.reference]));
+
+  const image = async (fileId: number | null): Promise<DocumentImage | null> => {
+    if (fileId === null) return null;
+    const file = await readStoredFile(db, dataDir, fileId);
+    return file && embeddable.has(file.row.mime) ? { bytes: file.bytes, mime: file.row.mime } : null;
+  };
+
+  // The latest signature of each role counts (a person may sign again after a change).
+  const signatureRows = await db.selectFrom('signatures').selectAll().where('job_id', '=', jobId).orderBy('id').execute();
+  const latestByRole = new Map<string, SignatureRow>();
+  for (const row of signatureRows) latestByRole.set(row.role, row);
+  const signatures: DocumentSignature[] = [];
+  for (const row of latestByRole.values()) {
+    signatures.push({
+      role: row.role,
+      name: row.name,
+      signedAt: row.signed_at,
+      signedBy: names.get(row.user_id) ?? 'former user',
+      image: await image(row.file_id),
+    });
+  }
+
+  const companySetting = await db.selectFrom('app_settings').select('value').where('key', '=', 'company').executeTakeFirst();
+  let company: Company = defaultCompany;
+  if (companySetting) {
+    const parsed = companySchema.safeParse(JSON.parse(companySetting.value));
+    if (parsed.success) company = parsed.data;
+  }
+
+  const acceptanceRows = await db.selectFrom('finding_acceptances').selectAll().where('job_id', '=', jobId).orderBy('id').execute();
+
+  return {
+    job,
+    site: toSite(siteRow),
+    record,
+    boards,
+    assessment: overallAssessment(record.observations.data),
+    nextInspection: nextInspectionDate(job.visitEndDate ?? job.visitDate, record.summary.data.nextInspectionMonths),
+    signatures,
+    company,
+    logo: await image(company.logoFileId),
+    acceptances: acceptanceRows.map((row) => ({
+      boardReference: row.board_id === null ? null : (boardReference.get(row.board_id) ?? null),
+      code: row.code,
+      message: row.message,
+      reason: row.reason,
+      acceptedBy: names.get(row.accepted_by) ?? 'former user',
+      acceptedAt: row.accepted_at,
+    })),
+  };
+}

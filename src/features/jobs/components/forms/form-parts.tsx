@@ -1,0 +1,72 @@
+import type React from 'react';
+import type { ReactNode } from 'react';
+
+export const inputClass =
+  'block w-full rounded border border-line-strong bg-surface px-2 py-1 aria-invalid:border-danger aria-invalid:bg-danger-soft disabled:opacity-60';
+
+/** A label, its control, and under it either a hint or the error in words. */
+export function FormField({ id, label, hint, error, children }: { id: string; label: string; hint?: string; error?: string; children: ReactNode }) {
+  return (
+    <div className="space-y-1">
+      <label htmlFor={id} className="block font-medium">
+        {label}
+      </label>
+      {children}
+      {hint && !error && (
+        <p id={`${id}-hint`} className="text-xs text-muted">
+          {hint}
+        </p>
+      )}
+      {error && (
+        <p id={`${id}-error`} className="text-danger">
+          {error}
+        </p>
+      )}
+    </div>
+  );
+}
+
+/** Props that tie a control to its hint or its error. */
+export function describedBy(id: string, error: string | undefined, hasHint = false) {
+  return {
+    'aria-invalid': error ? true : undefined,
+    'aria-describedby': error ? `${id}-error` : hasHint ? `${id}-hint` : undefined,
+  } as const;
+}
+
+/** The submit button and the form's own message (a problem no single field owns). */
+export function FormFooter({ pending, label, pendingLabel, formError }: { pending: boolean; label: string; pendingLabel: string; formError?: string }) {
+  return (
+    <div className="space-y-2 pt-1">
+      <button
+        type="submit"
+        aria-disabled={pending || undefined}
+        className="rounded bg-accent px-3 py-1.5 font-medium text-white hover:bg-accent-hover aria-disabled:opacity-70"
+      >
+        {pending ? pendingLabel : label}
+      </button>
+      <p className="text-xs text-muted">Enter saves from any field · Esc closes without saving</p>
+      <div role="alert" className="text-danger empty:hidden">
+        {formError}
+      </div>
+    </div>
+  );
+}
+
+/** Today as YYYY-MM-DD in the person's own time zone. */
+export function todayText(): string {
+  const now = new Date();
+  return `${now.getFullYear()}-${String(now.getMonth() + 1).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
+}
+
+/**
+ * Enter submits from any field: inputs do so by themselves; a select does not, so the form asks.
+ * (Textareas keep Enter for new lines.)
+ */
+export function enterSubmits(event: React.KeyboardEvent<HTMLFormElement>) {
+  if (event.key !== 'Enter' || event.nativeEvent.isComposing) return;
+  if (event.target instanceof HTMLSelectElement) {
+    event.preventDefault();
+    event.currentTarget.requestSubmit();
+  }
+}

@@ -1,0 +1,151 @@
+import * as fontkit from 'fontkit';
+import { PDFParse } from 'pdf-parse';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { columns, readingKeys } from '../../../shared/schemas/columns.ts';
+import { fontPath, type FontName } from '../../../server/pdf/fonts.ts';
+import { loadJobDocument, type JobDocument } from '../../../server/pdf/load-job-document.ts';
+import { renderJobPdf } from '../../../server/pdf/render-job-pdf.ts';
+import { addBoard, addCompany, addEicrRecord, addSignatures, readingsFor, writeReadings } from '../../helpers/issue-fixture.ts';
+import { createTestApp, type TestApp } from '../../helpers/test-app.ts';
+
+/** Collapses runs of white space, so a sentence wrapped over lines can be found whole. */
+const flat = (text: string) => text.replace(/\s+/g, ' ');
+
+describe('the PDF fonts', () => {
+  // Source: the fonts' own character maps, read with fontkit (the font library pdfkit uses).
+  it.each(['regular', 'medium', 'bold'] as FontName[])('when the %s face is opened, then it has Ω ≥ ✓ ✗ Δ ² µ', (name) => {
+    const font = fontkit.openSync(fontPath(name)) as fontkit.Font;
+    for (const sign of ['Ω', '≥', '✓', '✗', 'Δ', '²', 'µ', '’']) {
+      expect(font.hasGlyphForCodePoint(sign.codePointAt(0)!), `${sign} in ${name}`).toBe(true);
+    }
+  });
+});
+
+describe('the issued PDF of an EICR', () => {
+  let t: TestApp;
+  let document: JobDocument;
+  let pdf: Buffer;
+  let pages: { text: string; num: number }[];
+  let text: string;
+  const stamp = { revision: 2, issuedAt: new Date('2026-12-02T09:30:00.000Z'), issuedBy: 'Rhea Reviewer' };
+
+  beforeAll(async () => {
+    t = await createTestApp();
+    await addCompany(t.db, t.dataDir, t.ids.admin);
+    await addEicrRecord(t.db, t.ids.job, t.ids.tester);
+    await addSignatures(t.db, t.dataDir, t.ids.job, t.ids.tester, t.ids.reviewer);
+    // Readings on the fixture's single-phase board, one of them a LIM with its reason.
+    const circuits = await t.db.selectFrom('circuits').select(['id', 'kind']).where('board_id', '=', t.ids.board).orderBy('position').execute();
+    for (const [index, circuit] of circuits.entries()) {
+      const readings = readingsFor(index + 1, circuit.kind === 'ring' ? 'ring' : 'radial');
+      if (index === 2) readings.zs = 'LIM';
+      await writeReadings(t.db, circuit.id, readings, t.ids.tester, index === 2 ? { zs: 'Loft hatch sealed; no access to the far point' } : {});
+    }
+    await addBoard(t.db, t.ids.job, t.ids.reviewer, { reference: 'TP-DB2', ways: 18, phases: 3, locked: true });
+    document = (await loadJobDocument(t.db, t.ids.job, t.dataDir))!;
+    pdf = await renderJobPdf(document, stamp);
+    const parser = new PDFParse({ data: new Uint8Array(pdf) });
+    const result = await parser.getText();
+    await parser.destroy();
+    pages = result.pages;
+    text = result.text;
+  });
+  afterAll(() => t.close());
+
+  it('when parsed, then it is a PDF of several pages', () => {
+    expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    expect(pages.length).toBeGreaterThan(4);
+  });
+
+  it('when rendered again from the same job and issue, then the bytes are the same', async () => {
+    const again = await renderJobPdf(document, stamp);
+    expect(again.equals(pdf)).toBe(true);
+  });
+
+  it('when each page is read, then it says "page n of N" and carries the document reference and revision', () => {
+    for (const page of pages) {
+      expect(page.text).toContain(`page ${page.num} of ${pages.length}`);
+      expect(page.text).toContain('T-1 · revision 2');
+    }
+  });
+
+  it('when the schedules are read, then every circuit is there with every reading, in column order, on its own row', () => {
+    for (const { board, circuits } of document.boards) {
+      expect(text).toContain(`Schedule of test results: board ${board.reference}`);
+      for (const circuit of circuits) {
+        const readings = readingKeys.map((key) => circuit.cells[key]?.text ?? '').filter(Boolean);
+        expect(readings.length).toBeGreaterThan(5);
+        const row = text.split('\n').find((line) => line.startsWith(`${circuit.number} `) && line.endsWith(readings.join(' ')));
+        expect(row, `results row of circuit ${circuit.number} on ${board.reference}: ${readings.join(' ')}`).toBeDefined();
+      }
+    }
+  });
+
+  it('when a three-phase board is read, then its circuits keep their per-phase numbers as stored', () => {
+    // Common practice: three-phase boards number ways per phase (1L1, 1L2, 1L3, 2L1 …).
+    for (const number of ['1L1', '1L2', '1L3', '6L3']) expect(text).toMatch(new RegExp(`^${number} L\\d`, 'm'));
+  });
+
+  it('when a reading is LIM, then its reason is printed with it', () => {
+    expect(flat(text)).toContain('circuit 3, Zs: Loft hatch sealed; no access to the far point');
+  });
+
+  it('when the board details are read, then Zdb, Ipf and the instruments are there', () => {
+    expect(text).toContain('0.25 Ω'); // the fixture board's Zdb
+    expect(text).toContain('1.5 kA'); // its Ipf
+    expect(flat(text)).toContain('Multifunction tester serial KP-20417');
+  });
+
+  it('when the record is read, then every section, the inspections, the observations with their codes and the summary are there', () => {
+    const all = flat(text);
+    for (const heading of [
+      'Who asked for the report, and why',
+      'The installation as found',
+      'Supply characteristics and earthing arrangements',
+      'Particulars at the origin',
+      'Extent of the inspection and its limitations',
+      'Schedule of inspections',
+      'Observations',
+      'Summary',
+      'Declaration',
+    ]) {
+      expect(all).toContain(heading);
+    }
+    expect(all).toContain('1 C2 Socket-outlet on the balcony has no RCD protection.');
+    expect(all).toContain('Cables under the fitted kitchen floor');
+    // Items with their outcome signs, as the schedule of inspections records them.
+    expect(all).toMatch(/5\.8 Socket-outlets and outdoor equipment have additional protection by RCD C2/);
+    expect(all).toMatch(/4\.8 Surge protection \(SPD\): present where required, status indicator healthy not verified/);
+    expect(all).toMatch(/1\.1 Service cable, cut-out and meter tails: condition seen from outside ✓/);
+    // BS 7671 Appendix 6 (condition report notes): any C1, C2 or FI makes the installation unsatisfactory.
+    expect(all).toContain('Overall assessment unsatisfactory');
+    // Next inspection: visit 2026-12-01 + 60 months (rented dwelling, IET Guidance Note 3 [memory]).
+    expect(all).toContain('Next inspection recommended by 1 December 2031');
+  });
+
+  it('when the declaration is read, then the people, their positions and signing times are there', () => {
+    const all = flat(text);
+    expect(all).toContain('Priya Okonkwo');
+    expect(all).toContain('Qualified supervisor');
+    expect(all).toContain('Signed as Daniel Marsh on 1 December 2026, 10:15 UTC');
+    expect(all).not.toContain('not signed');
+  });
+
+  it('when it is read, then the safety caution is there', () => {
+    const all = flat(text);
+    expect(all).toContain('competent people');
+    expect(all).toContain('safe isolation');
+    expect(all).toContain('The current edition of BS 7671 and local regulations take precedence');
+  });
+
+  it('when it is read, then the company details are on the cover', () => {
+    expect(pages[0]!.text).toContain('Kestrel & Pine Electrical Ltd');
+    expect(pages[0]!.text).toContain('Electrical Installation Condition Report');
+  });
+
+  it('when every schedule column is counted, then each one is printed under a heading', () => {
+    // Every column of the registry appears in one of the two tables (details or results).
+    expect(columns.filter((c) => c.storage === 'reading').length).toBe(readingKeys.length);
+    for (const heading of ['r1', 'rn', 'r2', 'R1+R2', 'Zs', 'IΔn', 'L-E', 'Polarity']) expect(text).toContain(heading);
+  });
+});
