@@ -4,7 +4,10 @@ import type { Finding } from '../shared/schemas/findings.ts';
 import type { BoardWithContext } from './db/boards.ts';
 import { storedValueFindings } from './db/served-circuits.ts';
 
-/** The checker's findings for a stored board (with last time's readings when it has them), and any stored value that did not fit its field. */
+/**
+ * The checker's findings for a stored board (with last time's readings when it has them), and any
+ * stored value that did not fit its field.
+ */
 export function findingsFor(context: Pick<BoardWithContext, 'board' | 'site' | 'circuits'> & Partial<Pick<BoardWithContext, 'previousReadings'>>): Finding[] {
   const unfit = storedValueFindings(context.circuits);
   const findings = checkBoard(boardToCheckInput(context));

@@ -106,9 +106,16 @@ export async function updateCircuit(
     });
     if (conflicting.length > 0) return { ok: false, conflictingFields: conflicting };
   }
+  // Values the circuit already holds change nothing: no new version, no history (a retried
+  // request after a lost answer is harmless, and the live feed has nothing to bring).
+  const changedKeys = keys.filter((k) => {
+    const column = circuitFieldColumns[k as keyof CircuitFields];
+    return fieldText(circuit[column]) !== fieldText(changes[k as keyof CircuitFields]);
+  });
+  if (changedKeys.length === 0) return { ok: true, version: circuit.version };
   const version = circuit.version + 1;
   const now = new Date().toISOString();
-  for (const key of keys) {
+  for (const key of changedKeys) {
     const column = circuitFieldColumns[key as keyof CircuitFields];
     const oldText = fieldText(circuit[column]);
     const newText = fieldText(changes[key as keyof CircuitFields]);

@@ -21,3 +21,11 @@ export function storedValueFindings(circuits: readonly Circuit[]): Finding[] {
   }
   return found;
 }
+
+/** The same circuit at another position (findings about its stored values carried along). */
+export function withPosition(circuit: Circuit, position: number): Circuit {
+  const moved = { ...circuit, position };
+  const findings = unfitFindings.get(circuit);
+  if (findings) unfitFindings.set(moved, findings);
+  return moved;
+}

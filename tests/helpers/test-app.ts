@@ -105,6 +105,8 @@ export function asOwnPage(inner: Express): Express {
     next();
   });
   outer.use(inner);
+  // What createApp left for the process (appServices: file store, mail sender) stays reachable.
+  Object.assign(outer.locals, inner.locals);
   return outer;
 }
 

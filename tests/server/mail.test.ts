@@ -195,6 +195,31 @@ describe('sending an issued job to the client', () => {
     expect(listMailbox(path.join(dir, 'mailbox'))).toEqual([]);
   });
 
+  it('when something other than a PDF or an image arrives, then the mailbox hands it over as bytes to download, never as a page', async () => {
+    // Anyone on the machine can post to the local server; nodemailer sends straight to it here.
+    const transport = (await import('nodemailer')).default.createTransport({ url: mailServer!.url } as never);
+    await transport.sendMail({
+      from: 'someone@elsewhere.example',
+      to: 'admin@test.example',
+      subject: 'Not a report',
+      text: 'see attached',
+      attachments: [{ filename: 'page.html', content: '<script>alert(1)</script>', contentType: 'text/html' }],
+    });
+    const admin = await t.signIn('admin');
+    const [message] = (await admin.get('/api/admin/mailbox')).body.messages;
+    expect(message.attachments[0]).toMatchObject({ filename: 'page.html', contentType: 'text/html' });
+    const res = await admin.get(`/api/admin/mailbox/${message.id}/attachments/0`);
+    expect(res.headers['content-type']).toBe('application/octet-stream');
+    expect(res.headers['content-disposition']).toMatch(/^attachment;/);
+  });
+
+  it('when a message id is not one the mailbox made, then 404 (no path is read from it)', async () => {
+    const admin = await t.signIn('admin');
+    expect((await admin.get('/api/admin/mailbox/..%2F..%2Fetc%2Fpasswd/raw')).status).toBe(404);
+    expect((await admin.get('/api/admin/mailbox/20261202-070000000-deadbeef/attachments/0')).status).toBe(404);
+    expect((await admin.get('/api/admin/mailbox/20261202-070000000-deadbeef/attachments/x')).status).toBe(400);
+  });
+
   it('when a reviewer opens the mailbox, then 403: it is for admins', async () => {
     expect((await (await t.signIn('reviewer')).get('/api/admin/mailbox')).status).toBe(403);
   });

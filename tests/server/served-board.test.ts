@@ -9,7 +9,11 @@ import {
 import { boardToCheckInput, checkInputSchema } from '../../shared/schemas/check.ts';
 import { readingKeys } from '../../shared/schemas/columns.ts';
 import { storedValueFindingCode } from '../../shared/schemas/fit-circuit.ts';
+import { loadBoardWithContext } from '../../server/db/boards.ts';
 import { nextCircuitNumber } from '../../server/db/circuits.ts';
+import { findingsFor } from '../../server/findings.ts';
+import { mergeChanges } from '../../src/features/board-console/sync/merge.ts';
+import type { BoardDetail } from '../../shared/schemas/boards.ts';
 import { createTestApp, type TestApp } from '../helpers/test-app.ts';
 
 // The oracle here is the project's own published contract: the zod response schemas in
@@ -117,14 +121,18 @@ const op: fc.Arbitrary<Op> = fc.oneof(
   fc.record({ kind: fc.constant('board' as const), changes: fc.oneof(fc.record({ zdbOhm: fc.double({ min: -1, max: 120, noNaN: true }) }), fc.record({ reference: fc.string({ maxLength: 70 }) })) }),
 );
 
+const sortedJson = (list: unknown[]) => list.map((x) => JSON.stringify(x)).sort();
+
 describe('property: every accepted write leaves a board that is served whole', () => {
-  it('when any sequence of writes is sent, then each one answers below 500, and after each accepted one the board as served parses with its response schema', async () => {
+  it('when any sequence of writes is sent, then each one answers below 500, and after each accepted one the board as served parses with its response schema, equals the board read afresh from the database, and a second console following the changes feed sees the same', async () => {
     await fc.assert(
       fc.asyncProperty(fc.array(op, { minLength: 1, maxLength: 8 }), async (ops) => {
         const app = await createTestApp();
         try {
           const agent = await app.signIn('tester');
+          const follower = await app.signIn('reviewer');
           const base = `/api/boards/${app.ids.board}`;
+          let followed = boardDetailResponseSchema.parse((await follower.get(base)).body) as BoardDetail;
           for (const o of ops) {
             const board = boardDetailResponseSchema.parse((await agent.get(base)).body);
             const at = (i: number) => board.circuits[i % Math.max(board.circuits.length, 1)];
@@ -159,6 +167,18 @@ describe('property: every accepted write leaves a board that is served whole', (
               checkInputSchema.parse(boardToCheckInput(parsed));
               expect(parsed.findings.filter((f) => f.code === storedValueFindingCode)).toEqual([]);
               boardChangesResponseSchema.parse((await agent.get(`${base}/changes?after=0`)).body);
+              // The board kept in memory is the board in the database.
+              const fresh = (await loadBoardWithContext(app.db, app.ids.board))!;
+              expect(parsed.circuits).toEqual(JSON.parse(JSON.stringify(fresh.circuits)));
+              expect(parsed.board).toEqual(JSON.parse(JSON.stringify(fresh.board)));
+              expect(sortedJson(parsed.findings)).toEqual(sortedJson(JSON.parse(JSON.stringify(findingsFor(fresh)))));
+              // A second console following the feed holds the same circuits and findings.
+              const feed = boardChangesResponseSchema.parse((await follower.get(`${base}/changes?after=${followed.cursor}`)).body);
+              const merged = mergeChanges(followed, feed as never, { after: followed.cursor, pending: new Set(), applyOrder: true });
+              expect(merged.missing).toBe(false);
+              followed = merged.detail;
+              expect(followed.circuits).toEqual(parsed.circuits);
+              expect(sortedJson(followed.findings.filter((f) => f.circuitId !== null))).toEqual(sortedJson(parsed.findings.filter((f) => f.circuitId !== null)));
             }
           }
         } finally {
