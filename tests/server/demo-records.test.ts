@@ -8,7 +8,7 @@ import { inspectionItemIds } from '../../shared/schemas/inspection-items.ts';
 import { jobDetailResponseSchema, type JobDetail } from '../../shared/schemas/jobs.ts';
 import { overallAssessment, sectionsFor, usualIntervalMonths, type JobSectionData, type Observation } from '../../shared/schemas/job-record.ts';
 import { siteListResponseSchema } from '../../shared/schemas/sites.ts';
-import { openTestDatabase } from '../helpers/test-app.ts';
+import { asOwnPage, openTestDatabase } from '../helpers/test-app.ts';
 
 let db: DB;
 let close: () => void;
@@ -21,7 +21,7 @@ beforeAll(async () => {
   db = opened.db;
   close = opened.close;
   await seedDemo(db);
-  const app = createApp({ db, sqlite: opened.sqlite, postgres: opened.pool, sessionSecret: 'demo-records-test', signInAttemptsPerMinute: 1000 });
+  const app = asOwnPage(createApp({ db, sqlite: opened.sqlite, postgres: opened.pool, sessionSecret: 'demo-records-test', signInAttemptsPerMinute: 1000 }));
   agent = request.agent(app);
   expect((await agent.post('/api/auth/sign-in').send({ email: 'tester@boardwalk.test', password: demoPassword })).status).toBe(200);
   const jobs = await db.selectFrom('jobs').select(['id', 'kind']).execute();

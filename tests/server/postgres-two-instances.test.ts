@@ -4,7 +4,7 @@ import request from 'supertest';
 import { createApp } from '../../server/app.ts';
 import { SharedPresence } from '../../server/shared-presence.ts';
 import { openPostgres, type OpenedPostgres } from '../../server/db/database.ts';
-import { createTestApp, listen, password, testPostgresUrl, type TestApp } from '../helpers/test-app.ts';
+import { asOwnPage, createTestApp, listen, password, testPostgresUrl, type TestApp } from '../helpers/test-app.ts';
 
 /**
  * Two Boardwalk processes behind a load balancer share one PostgreSQL database: each instance here
@@ -22,7 +22,8 @@ describe.skipIf(!testPostgresUrl)('two instances on one PostgreSQL database', ()
   beforeEach(async () => {
     t = await createTestApp();
     second = openPostgres(t.postgres!.url, { max: 4 });
-    const appB = createApp({ db: second.db, postgres: second.pool, sessionSecret: 'test-secret', signInAttemptsPerMinute: 1000, dataDir: t.dataDir });
+    // Both as their own pages call them (same-origin changes), like t.app.
+    const appB = asOwnPage(createApp({ db: second.db, postgres: second.pool, sessionSecret: 'test-secret', signInAttemptsPerMinute: 1000, dataDir: t.dataDir }));
     const a = await listen(t.app);
     const b = await listen(appB);
     servers = [a.server, b.server];
