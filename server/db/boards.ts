@@ -1,4 +1,5 @@
-import type { Board, Circuit, UpdateBoardBody } from '../../shared/schemas/boards.ts';
+import type { Board, Circuit, PreviousReadings, UpdateBoardBody } from '../../shared/schemas/boards.ts';
+import { isReadingKey } from '../../shared/schemas/columns.ts';
 import type { Job, Site } from '../../shared/schemas/sites.ts';
 import type { DB } from './database.ts';
 import { appendHistory } from './history.ts';
@@ -44,6 +45,8 @@ export interface BoardWithContext {
   site: Site;
   job: Job;
   circuits: Circuit[];
+  /** Last time's readings of the circuits that were carried over from an earlier job. */
+  previousReadings: PreviousReadings[];
 }
 
 export async function loadBoardWithContext(db: DB, boardId: number): Promise<BoardWithContext | undefined> {
@@ -51,7 +54,54 @@ export async function loadBoardWithContext(db: DB, boardId: number): Promise<Boa
   if (!board) return undefined;
   const job = await db.selectFrom('jobs').selectAll().where('id', '=', board.jobId).executeTakeFirstOrThrow();
   const site = await db.selectFrom('sites').selectAll().where('id', '=', job.site_id).executeTakeFirstOrThrow();
-  return { board, job: toJob(job), site: toSite(site), circuits: await loadCircuits(db, boardId) };
+  return {
+    board,
+    job: toJob(job),
+    site: toSite(site),
+    circuits: await loadCircuits(db, boardId),
+    previousReadings: await loadPreviousReadings(db, boardId),
+  };
+}
+
+/**
+ * For each circuit of a board that has a previous circuit (the same circuit on an earlier job),
+ * that circuit's cells and its job: one query, empty when the board was not started from another.
+ */
+export async function loadPreviousReadings(db: DB, boardId: number): Promise<PreviousReadings[]> {
+  const rows = await db
+    .selectFrom('circuits as current')
+    .innerJoin('circuits as previous', 'previous.id', 'current.previous_circuit_id')
+    .innerJoin('boards as previous_board', 'previous_board.id', 'previous.board_id')
+    .innerJoin('jobs as previous_job', 'previous_job.id', 'previous_board.job_id')
+    .leftJoin('cells', 'cells.circuit_id', 'previous.id')
+    .select([
+      'current.id as circuit_id',
+      'previous_job.id as job_id',
+      'previous_job.kind as job_kind',
+      'previous_job.reference as job_reference',
+      'previous_job.visit_date as job_visit_date',
+      'cells.column_key',
+      'cells.text',
+      'cells.reason',
+    ])
+    .where('current.board_id', '=', boardId)
+    .execute();
+  const byCircuit = new Map<number, PreviousReadings>();
+  for (const row of rows) {
+    let entry = byCircuit.get(row.circuit_id);
+    if (!entry) {
+      entry = {
+        circuitId: row.circuit_id,
+        job: { id: row.job_id, kind: row.job_kind, reference: row.job_reference, visitDate: row.job_visit_date },
+        cells: {},
+      };
+      byCircuit.set(row.circuit_id, entry);
+    }
+    if (row.column_key !== null && row.text !== null && isReadingKey(row.column_key)) {
+      entry.cells[row.column_key] = { text: row.text, reason: row.reason };
+    }
+  }
+  return [...byCircuit.values()].sort((a, b) => a.circuitId - b.circuitId);
 }
 
 export async function circuitOrder(db: DB, boardId: number): Promise<number[]> {

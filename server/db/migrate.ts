@@ -24,7 +24,9 @@ class MigrationFolderProvider implements MigrationProvider {
 
 /** Runs every pending migration; throws with the failing migration's name if one fails. */
 export async function migrateToLatest(db: DB): Promise<string[]> {
-  const migrator = new Migrator({ db, provider: new MigrationFolderProvider() });
+  // Helpers land migrations with timestamps reserved in advance, so one may arrive after a later-named
+  // one has already run on an existing database: run it anyway (each is an independent change).
+  const migrator = new Migrator({ db, provider: new MigrationFolderProvider(), allowUnorderedMigrations: true });
   const { error, results } = await migrator.migrateToLatest();
   const failed = results?.find((r) => r.status === 'Error');
   if (error) {

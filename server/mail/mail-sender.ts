@@ -1,5 +1,6 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import type SMTPTransport from 'nodemailer/lib/smtp-transport';
+import { defaultCompany } from '../../shared/schemas/company.ts';
 import { loadCompany } from '../db/company.ts';
 import type { DB } from '../db/database.ts';
 import type { OutgoingMailRow } from '../db/types.ts';
@@ -127,7 +128,8 @@ export class MailSender {
     const company = await loadCompany(this.db);
     const from = this.options.from ?? (company.email || 'boardwalk@localhost');
     const info = await this.transport.sendMail({
-      from: company.name ? { name: company.name, address: from } : from,
+      // The placeholder name of a company nobody has described yet is not put on a client's e-mail.
+      from: company.name && company.name !== defaultCompany.name ? { name: company.name, address: from } : from,
       ...(company.email && company.email !== from ? { replyTo: company.email } : {}),
       to: mail.to_address,
       subject: mail.subject,

@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import { defaultCompany } from '../../shared/schemas/company.ts';
 import { sendJobBodySchema, type OutgoingMail } from '../../shared/schemas/mail.ts';
 import { jobStateLabels } from '../../shared/schemas/sites.ts';
 import { loadCompany } from '../db/company.ts';
@@ -85,11 +86,14 @@ function composeBody(options: {
   lines.push(
     '',
     'Please keep it with the records of the installation: it will be asked for at the next inspection, and when the property is sold or let.',
-    '',
-    options.company.name,
   );
-  const contact = [options.company.phone, options.company.email].filter(Boolean).join(' · ');
-  if (contact) lines.push(contact);
+  // Signed with the company's name and contact; the placeholder name of a company nobody has
+  // described yet is left off.
+  const signature = [
+    options.company.name !== defaultCompany.name ? options.company.name : '',
+    [options.company.phone, options.company.email].filter(Boolean).join(' · '),
+  ].filter(Boolean);
+  if (signature.length > 0) lines.push('', ...signature);
   return `${lines.join('\n')}\n`;
 }
 

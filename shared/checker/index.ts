@@ -8,6 +8,7 @@
  * - `maxZs(query)`: maximum Zs for a device (BS 7671:2018 Tables 41.2–41.4).
  * - `checkBoard(input)`: every finding on a board; `createBoardChecker()` for cheap re-checks.
  * - `ringProfile(input)`: a ring's socket-by-socket diagnosis.
+ * - `checkJob(input)`: findings about a job's record and what ties it to its boards.
  * - calculators: `expectedRadialR1PlusR2`, `maxCableLength`, `expectedRingReading`,
  *   `expectedSpurR1PlusR2`, and the ring network formulas (`ringReadingAt`,
  *   `bridgedRingReadingAt`, `spurEndReading`).
@@ -71,7 +72,11 @@ export {
 } from './rules.ts';
 
 export {
-  /** Diagnoses a ring from its L-cpc readings at each socket, with the value to record as R1+R2. */
+  /**
+   * Diagnoses a ring from its L-cpc readings at each socket, with the value to record as R1+R2.
+   * Without socket positions (the usual case) each reading is judged against the range a sound ring
+   * reads anywhere, r1·r2/(r1+r2) … (r1+r2)/4.
+   */
   ringProfile,
   /** The reading at a socket of a cross-connected ring (correct or same-end linking). */
   ringReadingAt,
@@ -116,7 +121,16 @@ export {
   breakerTripMultiples,
   fuseTables,
   disconnectionTimes,
+  finalCircuitTimesByU0,
   defaultDisconnectionTimeS,
+  REDUCED_TEST_VOLTAGE_MINIMUM_MEGOHM,
+  REDUCED_TEST_VOLTAGE_SOURCE,
+  TT_ELECTRODE_STABLE_UP_TO_OHM,
+  TT_ELECTRODE_STABLE_SOURCE,
+  twinAndEarthCapacityMethodC,
+  TWIN_AND_EARTH_CAPACITY_SOURCE,
+  rcdFiveTimesDelayedLimit,
+  SOCKET_RCD_SOURCE,
   insulationMinima,
   insulationMinimum,
   rcdTimeLimits,
@@ -139,6 +153,7 @@ export {
   type InsulationMinimum,
   type RcdTimeLimit,
   type DisconnectionTimeRow,
+  type FinalCircuitTimeRow,
   type Lookup,
 } from './reference-data.ts';
 
@@ -148,6 +163,27 @@ export {
   /** Every finding about a job as a whole: its record, and the record against its boards. */
   checkJob,
   jobRules,
+  /** Every code the job rules emit, with its severity. */
+  jobFindingCodes,
+  /** Whether a summary's words call the installation satisfactory (not "unsatisfactory"). */
+  claimsSatisfactory,
   type JobCheckInput,
   type JobCheckBoard,
+  type JobFindingCode,
 } from './job-rules.ts';
+
+export {
+  /** The smallest main protective bonding conductor: 544.1.1, and Table 54.8 for PME. */
+  mainBondingMinimum,
+  pmeBondingTable,
+  TT_TOUCH_VOLTAGE_V,
+  ELECTRODE_STABLE_MAX_OHM,
+  type MainBondingQuery,
+  type MainBondingMinimum,
+} from './earthing-and-bonding.ts';
+
+export {
+  /** Notes on a circuit's readings against the same circuit last time (called by `checkBoard`). */
+  previousReadingFindings,
+  previousReadingCodes,
+} from './previous-readings.ts';

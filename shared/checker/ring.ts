@@ -259,7 +259,12 @@ export interface RingProfileInput {
   r2: number;
   /** L-cpc readings at each socket in ring order (Ω); null or NaN where there is no reading. */
   readings: ReadonlyArray<number | null>;
-  /** Each socket's fraction along the ring (0..1); evenly spaced when omitted: (i+1)/(n+1). */
+  /**
+   * Each socket's fraction along the ring (0..1), when known. Usually it is not (the tester reads
+   * the sockets in ring order but does not measure where each one is): then every reading is judged
+   * against the range a sound ring can give anywhere, r1·r2/(r1+r2) … (r1+r2)/4, and only a reading
+   * that no placement of the sockets explains is called a fault.
+   */
   positions?: readonly number[];
   /** How far a reading may stray before it counts (Ω); 0.05 when omitted (common practice). */
   toleranceOhm?: number;
@@ -269,8 +274,18 @@ export interface RingProfile {
   verdict: RingVerdict;
   /** The highest reading: the value to record as the ring's R1+R2; null when there is none. */
   recordValue: number | null;
-  /** The reading a sound, correctly cross-connected ring gives at each position (Ω). */
+  /**
+   * The reading a sound, correctly cross-connected ring gives at each position (Ω). Without
+   * positions the sockets are drawn evenly spaced, (i+1)/(n+1): a guide for a plot, not a judgement.
+   */
   expected: number[];
+  /**
+   * What a sound ring can read at any socket: r1·r2/(r1+r2) near the ends up to (r1+r2)/4 at
+   * mid-ring (Ω); null when r1 and r2 are not known.
+   */
+  soundRange: { low: number; high: number } | null;
+  /** Whether the sockets' positions were given (true) or the readings were judged on the range alone. */
+  positionsGiven: boolean;
   /** Zero-based indexes of the sockets the verdict points at. */
   suspects: number[];
   /** One or two lines in the tester's words. */
@@ -311,9 +326,12 @@ export function ringProfile(input: RingProfileInput): RingProfile {
   const { r1, r2, readings } = input;
   const count = readings.length;
   const tolerance = input.toleranceOhm ?? DEFAULT_RING_TOLERANCE;
+  const placed = input.positions !== undefined;
   const positions = input.positions ?? readings.map((_, i) => (i + 1) / (count + 1));
   const known = validRing(r1, r2);
   const expected = positions.map((x) => (known ? correctRingReading(r1, r2, x) : Number.NaN));
+  const soundRange = known ? { low: (r1 * r2) / (r1 + r2), high: (r1 + r2) / 4 } : null;
+  const base = { expected, soundRange, positionsGiven: placed };
   const valid: number[] = [];
   const missing: number[] = [];
   readings.forEach((r, i) => (typeof r === 'number' && Number.isFinite(r) ? valid : missing).push(i));
@@ -325,9 +343,9 @@ export function ringProfile(input: RingProfileInput): RingProfile {
 
   if (valid.length === 0) {
     return {
+      ...base,
       verdict: 'open',
       recordValue: null,
-      expected,
       suspects: [],
       message:
         (count === 0
@@ -342,6 +360,10 @@ export function ringProfile(input: RingProfileInput): RingProfile {
   const missingNote = missing.length > 0 ? ` No reading at ${socketList(missing).toLowerCase()}: check those points for a break.` : '';
   const values = valid.map(value);
   const spread = Math.max(...values) - Math.min(...values);
+
+  if (!placed && soundRange !== null) {
+    return unplacedVerdict({ r1, r2, readings, valid, soundRange, tolerance, recordValue, base, missingNote, rnNote });
+  }
 
   // Same-end linking: a parabola through zero at the ends.
   if (valid.length >= 3 && spread > 2 * tolerance) {
@@ -365,9 +387,9 @@ export function ringProfile(input: RingProfileInput): RingProfile {
     }
     if (sameEnds) {
       return {
+        ...base,
         verdict: 'same-end-linked',
         recordValue,
-        expected,
         suspects: [...valid],
         message:
           'Readings are low near the ends and highest mid-ring: line and cpc of the same cable end were linked. Link opposite ends and measure again before recording R1+R2.' +
@@ -392,18 +414,18 @@ export function ringProfile(input: RingProfileInput): RingProfile {
     const readingsText = high.map((i) => ohm(value(i))).join(', ');
     const lowNote = low.length > 0 ? ` ${socketList(low)} read below ${expectedText}: an interconnection as well?` : '';
     return {
+      ...base,
       verdict: 'high-point',
       recordValue,
-      expected,
       suspects: high,
       message: `${socketList(high)} ${high.length === 1 ? 'reads' : 'read'} ${readingsText}, well above the rest and ${expectedText}: a spur from that point, or a loose termination.${lowNote}${missingNote}${rnNote}`,
     };
   }
   if (low.length > 0) {
     return {
+      ...base,
       verdict: 'low-points',
       recordValue,
-      expected,
       suspects: low,
       message: `${socketList(low)} ${low.length === 1 ? 'reads' : 'read'} below ${expectedText}: an interconnection (bridge) across the ring.${missingNote}${rnNote}`,
     };
@@ -414,10 +436,114 @@ export function ringProfile(input: RingProfileInput): RingProfile {
       ? ` All readings are about ${ohm(offset)} above ${expectedText}: check the leads were nulled and the end-to-end readings.`
       : '';
   return {
+    ...base,
     verdict: 'consistent',
     recordValue,
-    expected,
     suspects: [],
     message: `Readings agree with a sound ring${known ? ` (about ${ohm(quarter)})` : ''}; record ${ohm(recordValue)} as R1+R2.${offsetNote}${missingNote}${rnNote}`,
   };
+}
+
+/**
+ * The verdict when the sockets' positions are not known (the usual case). A sound ring reads
+ * between r1·r2/(r1+r2) (a socket at an end) and (r1+r2)/4 (mid-ring) wherever its sockets are, so:
+ * - above (r1+r2)/4 + tolerance (and above the other sockets): no placement explains it — a spur
+ *   or a loose termination;
+ * - below r1·r2/(r1+r2) − tolerance: no placement of a sound ring explains it. If the readings fall
+ *   towards zero at the first and last sockets, rise to about (r1+r2)/4 in between and never go
+ *   above it (the curve x(1−x)(r1+r2) of line and cpc of the same end linked), that is named, with
+ *   the caution that an interconnection near the ends (or the ends joined) reads the same; any
+ *   other low reading is an interconnection;
+ * - otherwise consistent.
+ */
+function unplacedVerdict(p: {
+  r1: number;
+  r2: number;
+  readings: ReadonlyArray<number | null>;
+  valid: readonly number[];
+  soundRange: { low: number; high: number };
+  tolerance: number;
+  recordValue: number;
+  base: Pick<RingProfile, 'expected' | 'soundRange' | 'positionsGiven'>;
+  missingNote: string;
+  rnNote: string;
+}): RingProfile {
+  const { readings, valid, soundRange, tolerance, recordValue, base, missingNote, rnNote } = p;
+  const value = (i: number) => readings[i] as number;
+  const values = valid.map(value);
+  const typical = median(values);
+  const rangeText = `${ohm(soundRange.low)}–${ohm(soundRange.high)}, what a sound ring reads from its ends to mid-ring`;
+  const high = valid.filter((i) => value(i) > soundRange.high + tolerance + 1e-9 && value(i) - typical > tolerance + 1e-9);
+  const low = valid.filter((i) => value(i) < soundRange.low - tolerance - 1e-9);
+
+  if (high.length === 0 && low.length > 0 && sameEndShape(values, soundRange, tolerance)) {
+    return {
+      ...base,
+      verdict: 'same-end-linked',
+      recordValue,
+      suspects: [...valid],
+      message:
+        `Readings fall towards zero at the first and last sockets and reach about (r1+r2)/4 = ${ohm(soundRange.high)} only in between, far below ${ohm(soundRange.low)} at the ends: line and cpc of the same cable end were probably linked. Link opposite ends and measure again before recording R1+R2. ` +
+        'An interconnection between points near the two ends (or the two ends joined at the board) reads the same way: if the opposite ends were linked, look for one.' +
+        missingNote +
+        rnNote,
+    };
+  }
+  if (high.length > 0) {
+    const readingsText = high.map((i) => ohm(value(i))).join(', ');
+    const lowNote = low.length > 0 ? ` ${socketList(low)} read below ${ohm(soundRange.low)}: an interconnection as well?` : '';
+    return {
+      ...base,
+      verdict: 'high-point',
+      recordValue,
+      suspects: high,
+      message: `${socketList(high)} ${high.length === 1 ? 'reads' : 'read'} ${readingsText}, above the rest and above ${rangeText}, wherever the sockets are: a spur from that point, or a loose termination.${lowNote}${missingNote}${rnNote}`,
+    };
+  }
+  if (low.length > 0) {
+    return {
+      ...base,
+      verdict: 'low-points',
+      recordValue,
+      suspects: low,
+      message: `${socketList(low)} ${low.length === 1 ? 'reads' : 'read'} below ${rangeText}, wherever the sockets are: an interconnection (bridge) across the ring.${
+        low.length === valid.length ? ' Every socket reads low: line and cpc of the same cable end may have been linked instead (check the links before looking for a bridge).' : ''
+      }${missingNote}${rnNote}`,
+    };
+  }
+  const offsetNote =
+    typical > soundRange.high + tolerance + 1e-9
+      ? ` All readings are above (r1+r2)/4 = ${ohm(soundRange.high)}: check the leads were nulled and the end-to-end readings.`
+      : '';
+  return {
+    ...base,
+    verdict: 'consistent',
+    recordValue,
+    suspects: [],
+    message: `Readings lie within ${rangeText} (± ${ohm(tolerance)}): consistent with a sound ring; record ${ohm(recordValue)} as R1+R2.${offsetNote}${missingNote}${rnNote}`,
+  };
+}
+
+/**
+ * Whether readings in ring order have the shape of line and cpc of the same end linked:
+ * x(1−x)(r1+r2), zero at the ends and (r1+r2)/4 mid-ring, placed anywhere. The first and last
+ * readings lie below what a sound ring reads at its ends, none is above (r1+r2)/4, the readings
+ * rise to one peak and fall again (each step within the tolerance), the peak reaches the sound range,
+ * and the spread is well beyond a sound ring's.
+ */
+function sameEndShape(values: readonly number[], soundRange: { low: number; high: number }, tolerance: number): boolean {
+  const n = values.length;
+  if (n < 3) return false;
+  const first = values[0]!;
+  const last = values[n - 1]!;
+  const floor = soundRange.low - tolerance - 1e-9;
+  if (!(first < floor && last < floor)) return false;
+  let peak = 0;
+  for (let i = 1; i < n; i++) if (values[i]! > values[peak]!) peak = i;
+  const top = values[peak]!;
+  if (top > soundRange.high + tolerance + 1e-9 || top < soundRange.low - tolerance - 1e-9) return false;
+  for (let i = 1; i <= peak; i++) if (values[i]! < values[i - 1]! - tolerance - 1e-9) return false;
+  for (let i = peak + 1; i < n; i++) if (values[i]! > values[i - 1]! + tolerance + 1e-9) return false;
+  const soundSpread = soundRange.high - soundRange.low;
+  return top - Math.min(first, last) > soundSpread + 2 * tolerance + 1e-9;
 }

@@ -56,6 +56,7 @@ import {
   ZS_RULE_OF_THUMB_FACTOR,
   ZS_RULE_OF_THUMB_SOURCE,
 } from './reference-data.ts';
+import { previousReadingCodes, pushPreviousReadingFindings } from './previous-readings.ts';
 import { correctRingReading } from './ring.ts';
 
 // ---------------------------------------------------------------------------------------------
@@ -106,6 +107,7 @@ export const findingCodes = {
   'circuit-untested': 'warning',
   'circuit-number-duplicate': 'warning',
   'readings-look-calculated': 'note',
+  ...previousReadingCodes,
 } as const satisfies Record<string, Severity>;
 
 export type FindingCode = keyof typeof findingCodes;
@@ -231,35 +233,42 @@ interface ZsLimit {
   result: MaxZsResult;
   timeS: number | null;
   timeAssumed: boolean;
+  /** Where an assumed time comes from (the Table 41.1 row for the site's U0). */
+  timeSource: string;
   /** True when the limit is the TT RCD one (50 V / IΔn), to which the 0.8 rule does not apply. */
   rcdBased: boolean;
 }
 
 function zsLimitOf(c: CheckCircuit, ctx: BoardContext): ZsLimit {
   if (ctx.earthing === 'TT' && c.rcdType && c.rcdRatedResidualMa !== null) {
-    return { result: rcdMaxZsTT(c.rcdRatedResidualMa), timeS: null, timeAssumed: false, rcdBased: true };
+    return { result: rcdMaxZsTT(c.rcdRatedResidualMa), timeS: null, timeAssumed: false, timeSource: '', rcdBased: true };
   }
   const timeAssumed = c.maxDisconnectionS === null;
-  const timeS = c.maxDisconnectionS ?? defaultDisconnectionTimeS({ earthing: ctx.earthing, kind: c.kind, ratingA: c.ratingA, u0: ctx.u0 }).seconds;
+  const assumed = timeAssumed ? defaultDisconnectionTimeS({ earthing: ctx.earthing, kind: c.kind, ratingA: c.ratingA, u0: ctx.u0 }) : null;
+  const timeS = c.maxDisconnectionS ?? assumed!.seconds;
+  const timeSource = assumed?.source ?? TABLE_41_1_SOURCE;
   if (c.maxZsByHandOhm != null && (c.deviceStandard.trim() === '' || c.ratingA === null)) {
-    return byHand(c, c.maxZsByHandOhm, 'the device is not fully recorded', timeS, timeAssumed);
+    return byHand(c, c.maxZsByHandOhm, 'the device is not fully recorded', timeS, timeAssumed, timeSource);
   }
   if (c.deviceStandard.trim() === '') {
-    return { result: { ok: false, reason: 'no protective device is recorded' }, timeS, timeAssumed, rcdBased: false };
+    return { result: { ok: false, reason: 'no protective device is recorded' }, timeS, timeAssumed, timeSource, rcdBased: false };
   }
   if (c.ratingA === null) {
-    return { result: { ok: false, reason: 'the device rating In is not recorded' }, timeS, timeAssumed, rcdBased: false };
+    return { result: { ok: false, reason: 'the device rating In is not recorded' }, timeS, timeAssumed, timeSource, rcdBased: false };
   }
   const result = maxZs({ standard: c.deviceStandard, type: c.deviceType, ratingA: c.ratingA, disconnectionTimeS: timeS, u0: ctx.u0 });
-  if (!result.ok && c.maxZsByHandOhm != null) return byHand(c, c.maxZsByHandOhm, result.reason, timeS, timeAssumed);
-  return { result, timeS, timeAssumed, rcdBased: false };
+  if (!result.ok && c.maxZsByHandOhm != null) return byHand(c, c.maxZsByHandOhm, result.reason, timeS, timeAssumed, timeSource);
+  if (!result.ok && timeAssumed) {
+    return { result: { ok: false, reason: `${result.reason} (${timeS} s assumed from ${timeSource})` }, timeS, timeAssumed, timeSource, rcdBased: false };
+  }
+  return { result, timeS, timeAssumed, timeSource, rcdBased: false };
 }
 
 /**
  * A limit the tester entered by hand because the tables do not cover the device: used, and
  * labelled as such so a reviewer sees it was not looked up.
  */
-function byHand(c: CheckCircuit, limitOhm: number, why: string, timeS: number, timeAssumed: boolean): ZsLimit {
+function byHand(c: CheckCircuit, limitOhm: number, why: string, timeS: number, timeAssumed: boolean, timeSource: string): ZsLimit {
   const device = [c.deviceStandard.trim(), c.deviceType.trim(), c.ratingA === null ? '' : `${c.ratingA} A`].filter(Boolean).join(' ') || 'device';
   return {
     result: {
@@ -271,6 +280,7 @@ function byHand(c: CheckCircuit, limitOhm: number, why: string, timeS: number, t
     },
     timeS,
     timeAssumed,
+    timeSource,
     rcdBased: false,
   };
 }
@@ -374,7 +384,9 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   }
 
   const zsCell = parsed.zs;
-  const zs = plainNumber(zsCell);
+  const zsValue = plainNumber(zsCell);
+  // A Zs of 0 is not a measurement (said by its own finding): nothing to compare.
+  const zs = zsValue === 0 ? null : zsValue;
   const r1PlusR2 = plainNumber(parsed.r1PlusR2);
 
   zsRules(c, ctx, parsed, out);
@@ -430,6 +442,7 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   const ringR2 = plainNumber(parsed.ringR2);
   let ringTextbook: boolean | null = null;
   if (c.kind === 'ring') ringTextbook = ringRules(c, ringR1, ringRn, ringR2, r1PlusR2, out);
+  if (c.previous !== undefined) pushPreviousReadingFindings(c, parsed, out);
 
   out.sort(compareFindings);
   const numberKey = c.phase === null ? c.number.trim().toUpperCase() : `${c.number.trim().toUpperCase()}|${c.phase}`;
@@ -457,7 +470,7 @@ function zsRules(c: CheckCircuit, ctx: BoardContext, parsed: Readonly<Record<Rea
       ),
     );
   }
-  const { result, timeS, timeAssumed, rcdBased } = zsLimitOf(c, ctx);
+  const { result, timeS, timeAssumed, timeSource, rcdBased } = zsLimitOf(c, ctx);
   if (!result.ok) {
     out.push(finding('zs-limit-unknown', c.id, ['zs', 'deviceStandard'], `Zs ${show(parsed, 'zs')} not checked: ${lowerFirst(result.reason)}`, null, null));
     return;
@@ -470,8 +483,8 @@ function zsRules(c: CheckCircuit, ctx: BoardContext, parsed: Readonly<Record<Rea
   if (!over && !overRule) return;
   const shown = show(parsed, 'zs');
   const timeText = timeS === null ? '' : ` at ${timeS} s`;
-  const assumedNote = timeAssumed ? ` (${timeS} s assumed from ${TABLE_41_1_SOURCE})` : '';
-  const source = timeAssumed ? `${result.source}; ${timeS} s from ${TABLE_41_1_SOURCE}` : result.source;
+  const assumedNote = timeAssumed ? ` (${timeS} s assumed from ${timeSource})` : '';
+  const source = timeAssumed ? `${result.source}; ${timeS} s from ${timeSource}` : result.source;
   if (over) {
     out.push(finding('zs-over-max', c.id, ['zs'], `Zs ${shown} is over the maximum ${ohmText(limit)} Ω for a ${result.device}${timeText}${assumedNote}.`, `≤ ${ohmText(limit)} Ω`, source));
     return;
@@ -746,7 +759,7 @@ function ringRules(c: CheckCircuit, r1: number | null, rn: number | null, r2: nu
       const half = (r1 + r2) / 2;
       const why =
         Math.abs(r1PlusR2 - half) <= RING_R1R2_ALLOWANCE_OHM + EPS
-          ? `about (r1+r2)/2 = ${formatFixed(half, 2)} Ω, twice what a correctly cross-connected ring reads: were the ends linked wrongly at step 3?`
+          ? `about (r1+r2)/2 = ${formatFixed(half, 2)} Ω, twice the most a correctly cross-connected ring reads. With only one of the two cross-connections made (or one loose) the ring is a single path and a socket mid-ring reads (r1+r2)/2: were both ends linked, line to the opposite cpc, at step 3?`
           : 'a spur, a loose termination, or a reading at the wrong point.';
       out.push(
         finding('ring-r1r2-inconsistent', id, ['r1PlusR2', 'ringR1', 'ringR2'], `R1+R2 ${ohmReading(r1PlusR2)} Ω is above (r1+r2)/4 = ${formatFixed(quarter, 2)} Ω: ${why}`, quarterLimit(quarter), source),
@@ -826,6 +839,11 @@ export function spurOriginFraction(origin: string | null, ringPoints: number | n
     return k >= 1 && k <= ringPoints ? k / (ringPoints + 1) : null;
   }
   return null;
+}
+
+/** Whether a spur's origin names a socket by number ("socket 4", "4") rather than a fraction. */
+function isSocketNumber(origin: string | null): boolean {
+  return origin !== null && /^(?:socket|skt|point|pt|no\.?|#)?\s*\d+$/.test(origin.trim().toLowerCase());
 }
 
 function fractionOrNull(x: number): number | null {
@@ -983,6 +1001,29 @@ function spurRules(spurFacts: CircuitFacts, ring: CircuitFacts, out: Finding[]):
   const perMetre = r1PlusR2PerMetre(spur.liveCsaMm2, spur.cpcCsaMm2);
   if (!perMetre.ok) return;
   const x = spurOriginFraction(spur.spurOriginPoint, ring.circuit.points);
+  const cableOhm = (spur.spurLengthM * perMetre.milliohmPerMetre) / 1000;
+  // "socket 4" says which socket, not where it is along the ring: the ring's value there is anywhere
+  // in the sound range r1·r2/(r1+r2) … (r1+r2)/4, so the spur is judged against that range.
+  if (x !== null && isSocketNumber(spur.spurOriginPoint) && ring.ringR1 !== null && ring.ringR2 !== null && ring.ringR1 + ring.ringR2 > 0) {
+    const r1 = ring.ringR1;
+    const r2 = ring.ringR2;
+    const low = (r1 * r2) / (r1 + r2) + cableOhm;
+    const high = (r1 + r2) / 4 + cableOhm;
+    const allowance = Math.max(SPUR_ALLOWANCE_OHM, SPUR_ALLOWANCE_FRACTION * high);
+    if (measured < low - allowance - EPS || measured > high + allowance + EPS) {
+      out.push(
+        finding(
+          'spur-r1r2-unexpected',
+          spur.id,
+          ['r1PlusR2'],
+          `Spur R1+R2 ${ohmReading(measured)} Ω; expected ${formatFixed(low, 2)}–${formatFixed(high, 2)} Ω: the ring reads ${formatFixed(low - cableOhm, 2)}–${formatFixed(high - cableOhm, 2)} Ω at a socket (from r1 and r2, wherever ${spur.spurOriginPoint!.trim()} is) + ${spur.spurLengthM} m of ${spur.liveCsaMm2}/${spur.cpcCsaMm2} at ${perMetre.milliohmPerMetre} mΩ/m.`,
+          `${formatFixed(Math.max(0, low - allowance), 2)}–${formatFixed(high + allowance, 2)} Ω`,
+          `ring range r1·r2/(r1+r2) … (r1+r2)/4 + length × R1+R2 per metre (${IEC_60228_SOURCE}); allowance ± the larger of 0.05 Ω and 10 % — common practice`,
+        ),
+      );
+    }
+    return;
+  }
   let ringValue: number | null = null;
   let basis: 'origin' | 'recorded' | 'quarter' = 'recorded';
   if (x !== null && ring.ringR1 !== null && ring.ringR2 !== null && ring.ringR1 + ring.ringR2 > 0) {
@@ -995,7 +1036,6 @@ function spurRules(spurFacts: CircuitFacts, ring: CircuitFacts, out: Finding[]):
     basis = 'quarter';
   }
   if (ringValue === null) return;
-  const cableOhm = (spur.spurLengthM * perMetre.milliohmPerMetre) / 1000;
   const expected = ringValue + cableOhm;
   const allowance = Math.max(SPUR_ALLOWANCE_OHM, SPUR_ALLOWANCE_FRACTION * expected);
   if (Math.abs(measured - expected) > allowance + EPS) {

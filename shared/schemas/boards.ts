@@ -107,11 +107,25 @@ export const boardSummarySchema = z.object({
 export type BoardSummary = z.infer<typeof boardSummarySchema>;
 export const boardListResponseSchema = z.object({ boards: z.array(boardSummarySchema) });
 
+/**
+ * The readings of one circuit last time: the same circuit (`circuits.previous_circuit_id`) on the
+ * earlier job this board was started from, with that job's reference and visit date.
+ */
+export const previousReadingsSchema = z.object({
+  /** The circuit on this board. */
+  circuitId: z.number().int(),
+  job: z.object({ id: z.number().int(), kind: z.string(), reference: z.string(), visitDate: z.string() }),
+  cells: z.partialRecord(z.enum(readingKeys), z.object({ text: z.string(), reason: z.string().nullable() })),
+});
+export type PreviousReadings = z.infer<typeof previousReadingsSchema>;
+
 export const boardDetailResponseSchema = z.object({
   board: boardSchema,
   site: siteSchema,
   job: jobSchema,
   circuits: z.array(circuitSchema),
+  /** Last time's readings of the circuits that have a previous circuit; absent or empty otherwise. */
+  previousReadings: z.array(previousReadingsSchema).optional(),
   findings: z.array(findingSchema),
   /** Cursor of the newest change included; pass it to the changes feed. */
   cursor: z.number().int(),

@@ -42,6 +42,12 @@ export const readingKeys = [
 /** A reading column: stored as text exactly as the tester typed it. */
 export type ReadingKey = (typeof readingKeys)[number];
 
+/**
+ * Reading columns of optional tests (the RCD at 5 × IΔn since BS 7671:2018+A2): checked when
+ * written, never required, and not counted among the cells a board has to fill.
+ */
+export const optionalReadingKeys: readonly ReadingKey[] = ['rcdTime5Ms'];
+
 export const detailKeys = [
   'description',
   'kind',

@@ -37,10 +37,14 @@ export function zodFormErrors<Field extends string>(error: z.ZodError, knownFiel
   );
 }
 
-/** A failed request, placed at the fields its issues name; any other message at the form. */
-export function requestFormErrors<Field extends string>(error: unknown, knownFields: readonly Field[]): FormErrors<Field> {
+/**
+ * A failed request, placed at the fields its issues name; any other message at the form.
+ * `conflictField` names the field a 409 without issues is about (a reference already taken).
+ */
+export function requestFormErrors<Field extends string>(error: unknown, knownFields: readonly Field[], conflictField?: Field): FormErrors<Field> {
   if (error instanceof ApiError) {
     if (error.issues.length > 0) return placeIssues(error.issues, knownFields);
+    if (error.status === 409 && conflictField) return { fields: { [conflictField]: error.message } as Partial<Record<Field, string>> };
     return { fields: {}, form: error.message };
   }
   return { fields: {}, form: error instanceof Error ? error.message : 'That did not work. Try again.' };

@@ -50,7 +50,7 @@ interface ApiCircuit {
   cells: Partial<Record<ReadingKey, ApiCell | undefined>>;
 }
 interface ApiFinding {
-  severity: 'error' | 'warning' | 'note';
+  severity: 'error' | 'warning' | 'note' | 'todo';
   circuitId: number | null;
   columns: string[];
 }
@@ -91,7 +91,7 @@ interface Script {
  */
 function completeScript(circuits: readonly ApiCircuit[], findings: readonly ApiFinding[]): Script {
   const flagged = new Set(
-    findings.filter((f) => f.severity !== 'note' && f.circuitId !== null).flatMap((f) => f.columns.map((c) => `${f.circuitId} ${c}`)),
+    findings.filter((f) => (f.severity === 'error' || f.severity === 'warning') && f.circuitId !== null).flatMap((f) => f.columns.map((c) => `${f.circuitId} ${c}`)),
   );
   const seeded = (c: ApiCircuit, key: ReadingKey) => c.cells[key]?.text ?? '';
   const likeness = (c: ApiCircuit, d: ApiCircuit) =>

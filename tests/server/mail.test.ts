@@ -121,13 +121,26 @@ describe('sending an issued job to the client', () => {
     ]);
   });
 
-  it('when an address is given, then it goes there instead of the site contact', async () => {
+  it("when an address is given, then it goes there instead of the site contact, from and signed by the company", async () => {
     await issueJob();
     const admin = await t.signIn('admin');
+    await admin.put('/api/company').send({
+      name: 'Kestrel Lane Electrical Ltd',
+      address: '4 Kestrel Lane, Harwick',
+      phone: '01632 960 418',
+      email: 'office@kestrel-lane.example',
+      registration: '',
+      referencePattern: 'KL-{yyyy}-{seq:4}',
+    });
     const res = await admin.post(`/api/jobs/${t.ids.job}/send`).send({ to: 'agent@letting.example' });
     expect(res.status).toBe(202);
+    // Not the site contact, so not greeted by the contact's name.
+    expect(res.body.mail.body).toMatch(/^Hello,\n/);
+    expect(res.body.mail.body).toMatch(/\n\nKestrel Lane Electrical Ltd\n01632 960 418 · office@kestrel-lane.example\n$/);
     await waitForMail(admin, (mail) => mail[0]?.state === 'sent');
-    expect(listMailbox(path.join(dir, 'mailbox'))[0]!.envelopeTo).toEqual(['agent@letting.example']);
+    const received = listMailbox(path.join(dir, 'mailbox'))[0]!;
+    expect(received.envelopeTo).toEqual(['agent@letting.example']);
+    expect(received.from).toBe('Kestrel Lane Electrical Ltd <office@kestrel-lane.example>');
   });
 
   it('when the job is not issued, then 409 in words and nothing is queued', async () => {
@@ -180,6 +193,31 @@ describe('sending an issued job to the client', () => {
     expect(failed!.state).toBe('failed');
     expect(failed!.lastError).toMatch(/SHA-256/);
     expect(listMailbox(path.join(dir, 'mailbox'))).toEqual([]);
+  });
+
+  it('when something other than a PDF or an image arrives, then the mailbox hands it over as bytes to download, never as a page', async () => {
+    // Anyone on the machine can post to the local server; nodemailer sends straight to it here.
+    const transport = (await import('nodemailer')).default.createTransport({ url: mailServer!.url } as never);
+    await transport.sendMail({
+      from: 'someone@elsewhere.example',
+      to: 'admin@test.example',
+      subject: 'Not a report',
+      text: 'see attached',
+      attachments: [{ filename: 'page.html', content: '<script>alert(1)</script>', contentType: 'text/html' }],
+    });
+    const admin = await t.signIn('admin');
+    const [message] = (await admin.get('/api/admin/mailbox')).body.messages;
+    expect(message.attachments[0]).toMatchObject({ filename: 'page.html', contentType: 'text/html' });
+    const res = await admin.get(`/api/admin/mailbox/${message.id}/attachments/0`);
+    expect(res.headers['content-type']).toBe('application/octet-stream');
+    expect(res.headers['content-disposition']).toMatch(/^attachment;/);
+  });
+
+  it('when a message id is not one the mailbox made, then 404 (no path is read from it)', async () => {
+    const admin = await t.signIn('admin');
+    expect((await admin.get('/api/admin/mailbox/..%2F..%2Fetc%2Fpasswd/raw')).status).toBe(404);
+    expect((await admin.get('/api/admin/mailbox/20261202-070000000-deadbeef/attachments/0')).status).toBe(404);
+    expect((await admin.get('/api/admin/mailbox/20261202-070000000-deadbeef/attachments/x')).status).toBe(400);
   });
 
   it('when a reviewer opens the mailbox, then 403: it is for admins', async () => {

@@ -694,6 +694,8 @@ function buildBoard(spec: BoardSpec): DemoBoard {
     liveCsaMm2: circuit.live,
     cpcCsaMm2: circuit.cpc,
     maxDisconnectionS: circuit.maxDisconnectionS,
+    // A radial's cable length, as a tester records it where known (its R1+R2 is checked against it).
+    cableLengthM: circuit.kind === 'radial' || circuit.kind === 'distribution' ? circuit.lengthM : null,
     deviceStandard: circuit.device.standard,
     deviceType: circuit.device.type,
     ratingA: circuit.device.ratingA,

@@ -164,6 +164,7 @@ async function insertBoard(
         live_csa_mm2: circuit.liveCsaMm2,
         cpc_csa_mm2: circuit.cpcCsaMm2,
         max_disconnection_s: circuit.maxDisconnectionS,
+        cable_length_m: circuit.cableLengthM ?? null,
         device_standard: circuit.deviceStandard,
         device_type: circuit.deviceType,
         rating_a: circuit.ratingA,

@@ -15,6 +15,8 @@ export type JobsForm =
   | { kind: 'new-board'; jobId?: number };
 
 export interface JobsContext {
+  /** false until the sites and jobs have been loaded. */
+  loaded: boolean;
   tree: readonly SiteWithJobs[];
   /** What the search leaves shown. */
   shown: readonly SiteWithJobs[];
@@ -42,8 +44,10 @@ function jobInView(ctx: JobsContext): number | undefined {
   return jobs.length === 1 ? jobs[0]!.job.id : undefined;
 }
 
-const hasSite = (ctx: JobsContext) => (ctx.tree.length > 0 ? true : 'There is no site yet: add one first');
-const hasJob = (ctx: JobsContext) => (ctx.tree.some((entry) => entry.jobs.length > 0) ? true : 'There is no job yet: start one first');
+const STILL_LOADING = 'The sites and jobs are still loading';
+const hasSite = (ctx: JobsContext) => (!ctx.loaded ? STILL_LOADING : ctx.tree.length > 0 ? true : 'There is no site yet: add one first');
+const hasJob = (ctx: JobsContext) =>
+  !ctx.loaded ? STILL_LOADING : ctx.tree.some((entry) => entry.jobs.length > 0) ? true : 'There is no job yet: start one first';
 
 /** `getCtx` is read when the palette asks for a choice's options (the lists change as people work). */
 export function createJobsCommands(getCtx: () => JobsContext | null): Command<JobsContext>[] {

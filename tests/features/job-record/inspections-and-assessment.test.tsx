@@ -153,3 +153,25 @@ describe('observations and the derived overall assessment', () => {
     expect(await screen.findByText(expected)).toBeInTheDocument();
   });
 });
+
+describe('the job’s findings', () => {
+  it('when a C1 item is left without its observation, then the checker’s finding lists with its source, and choosing it puts the cursor on the item', async () => {
+    const server = createFakeJobServer('EICR');
+    const { user } = renderJob(server);
+    await screen.findByRole('grid', { name: 'Schedule of inspections' });
+    await user.keyboard('{Alt>}{Shift>}i{/Shift}{/Alt}{ArrowDown}1');
+    await screen.findByRole('dialog', { name: 'New observation' });
+    await user.keyboard('{Escape}');
+    await waitFor(() => expect(server.record.inspections.data).toEqual({ '1.2': 'C1' }));
+
+    // The finding comes from the shared checker's job rules (through the fake server's answer).
+    const finding = await screen.findByRole('button', { name: /Inspection item 1\.2 .* is marked C1 but no observation says what was found/ });
+    expect(finding).toHaveTextContent('source: BS 7671:2018 Appendix 6');
+    await user.keyboard('{Alt>}{Shift>}f{/Shift}{/Alt}');
+    expect(finding).toHaveFocus();
+    await user.keyboard('{Enter}');
+    const grid = screen.getByRole('grid', { name: 'Schedule of inspections' });
+    expect(grid).toHaveFocus();
+    expect(grid).toHaveAttribute('aria-activedescendant', 'job-inspection-1-2');
+  });
+});

@@ -1,7 +1,7 @@
 import { screen, waitFor, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { JobRecordPage } from '../../../src/features/job-record/components/job-record-page.tsx';
-import { renderWithProviders, stubApi, type ApiCall } from '../../helpers/render.tsx';
+import { json, renderWithProviders, stubApi, type ApiCall } from '../../helpers/render.tsx';
 import { createFakeJobServer } from './job-fixture.ts';
 
 function renderJob(server: ReturnType<typeof createFakeJobServer>) {
@@ -108,5 +108,50 @@ describe('job screen: fields save on leaving them', () => {
     expect(await screen.findByText(/🔒 This job is approved/)).toBeInTheDocument();
     expect(u0).toHaveAttribute('readonly');
     expect(screen.getByLabelText('Earthing system')).toBeDisabled();
+  });
+});
+
+describe('job screen: an observation edited by two people', () => {
+  it('when someone else changed the observation meanwhile, then the form says so with theirs, and keep mine stores mine', async () => {
+    const server = createFakeJobServer('EICR');
+    const first = { number: 1, text: 'Outside socket has no RCD', location: 'Yard', code: 'C3' as const, boardId: null, circuitId: null, inspectionItem: null };
+    server.writeAsOther('observations', 'o-0a0b0c0d0e', first);
+    const { user } = renderJob(server);
+    await user.click(await screen.findByRole('button', { name: 'Edit observation 1' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Observation 1' });
+    server.writeAsOther('observations', 'o-0a0b0c0d0e', { ...first, text: 'Outside socket has no RCD and a cracked lid' });
+
+    await user.selectOptions(within(dialog).getByLabelText('Code'), 'C2');
+    await user.click(within(dialog).getByRole('button', { name: 'Save the observation' }));
+    const alert = await within(dialog).findByRole('alert');
+    await waitFor(() => expect(alert).toHaveTextContent('theirs reads “Outside socket has no RCD and a cracked lid” (C3)'));
+
+    await user.click(within(alert).getByRole('button', { name: 'Keep mine' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(server.record.observations.data['o-0a0b0c0d0e']).toMatchObject({ text: 'Outside socket has no RCD', code: 'C2' });
+  });
+});
+
+describe('job screen: the server refuses an observation', () => {
+  it('when the server names a field of the observation, then its words show at that field and the form stays open', async () => {
+    const server = createFakeJobServer('EICR');
+    server.handlers['PUT /api/jobs/41/record/observations'] = (call) => {
+      const id = Object.keys((call.body as { changes: Record<string, unknown> }).changes)[0]!;
+      return json(400, {
+        error: { code: 'bad_request', message: 'Board 301 is not a board of this job.', issues: [{ path: `${id}.boardId`, message: 'Board 301 is not a board of this job.' }] },
+      });
+    };
+    const { user } = renderJob(server);
+    await screen.findByRole('heading', { name: 'Observations' });
+    await user.keyboard('{Alt>}{Shift>}o{/Shift}{/Alt}');
+    const dialog = await screen.findByRole('dialog', { name: 'New observation' });
+    await user.keyboard('Board cover missing');
+    await user.selectOptions(within(dialog).getByLabelText('Board'), '301');
+    await user.click(within(dialog).getByRole('button', { name: 'Save the observation' }));
+
+    const board = within(dialog).getByLabelText('Board');
+    await waitFor(() => expect(board).toHaveAttribute('aria-invalid', 'true'));
+    expect(within(dialog).getByText('Board 301 is not a board of this job.')).toBeInTheDocument();
+    expect(screen.getByRole('dialog', { name: 'New observation' })).toBeInTheDocument();
   });
 });

@@ -37,6 +37,14 @@ describe('maxZs for BS EN 60898 circuit-breakers and BS EN 61009 RCBOs', () => {
     }
   });
 
+  it('names the standard of the device: an RCBO cites BS EN 61009-1, a circuit-breaker BS EN 60898-1', () => {
+    const rcbo = maxZs({ standard: 'BS EN 61009-1', type: 'B', ratingA: 32, disconnectionTimeS: 0.4 });
+    const mcb = maxZs({ standard: '60898', type: 'B', ratingA: 32, disconnectionTimeS: 0.4 });
+    expect(rcbo.ok && rcbo.source).toContain('BS EN 61009-1');
+    expect(rcbo.ok && rcbo.source).not.toContain('60898');
+    expect(mcb.ok && mcb.source).toContain('BS EN 60898-1');
+  });
+
   it('rounds half-up in exact decimals where binary floats round down', () => {
     // 0.95 × 230 / (5 × 76) is exactly 0.575 on paper; in doubles it rounds to 0.57.
     expect(Math.round(((0.95 * 230) / 380) * 100) / 100).toBe(0.57);

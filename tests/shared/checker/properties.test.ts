@@ -45,6 +45,7 @@ function circuitArbitrary(id: number, ids: readonly number[]): fc.Arbitrary<Chec
     spurOriginPoint: fc.constantFrom(null, 'socket 3', '0.5', '40%', 'kitchen'),
     spurLengthM: fc.constantFrom(null, 3, 8),
     maxZsByHandOhm: fc.constantFrom(null, 0.5, 2.4),
+    cableLengthM: fc.constantFrom(undefined, null, 12, 40),
     cells,
   });
 }
@@ -55,11 +56,11 @@ const boardArbitrary: fc.Arbitrary<CheckInput> = fc
     fc.record({
       board: fc.record({
         phases: fc.constantFrom(1 as const, 3 as const),
-        zdbOhm: fc.constantFrom(null, 0.2, 0.35, 0.8),
-        ipfKa: fc.constantFrom(null, 1.6, 8),
+        zdbOhm: fc.constantFrom(null, 0, 0.2, 0.35, 0.8, 150),
+        ipfKa: fc.constantFrom(null, 0.05, 1.6, 8),
         polarityConfirmed: fc.boolean(),
       }),
-      site: fc.record({ earthing: fc.constantFrom('TN-S' as const, 'TN-C-S' as const, 'TT' as const), nominalVoltageV: fc.constantFrom(230, 240) }),
+      site: fc.record({ earthing: fc.constantFrom('TN-S' as const, 'TN-C-S' as const, 'TT' as const), nominalVoltageV: fc.constantFrom(110, 230, 240, 277, 480) }),
       circuits: fc.tuple(...ids.map((id) => circuitArbitrary(id, ids))),
     }),
   );

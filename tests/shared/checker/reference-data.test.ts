@@ -101,3 +101,25 @@ describe('maximum disconnection times', () => {
     expect(defaultDisconnectionTimeS({ earthing, kind, ratingA })).toMatchObject({ seconds });
   });
 });
+
+describe('maximum disconnection times follow U0 (final circuits ≤ 63 A / ≤ 32 A)', () => {
+  it.each([
+    ['TN-C-S', 230, 0.4], // BS 7671:2018 Table 41.1, 120 V < U0 ≤ 230 V
+    ['TT', 230, 0.2], // Table 41.1, 120 V < U0 ≤ 230 V
+    ['TN-S', 240, 0.2], // Table 41.1, 230 V < U0 ≤ 400 V
+    ['TN-C-S', 400, 0.2], // Table 41.1, 230 V < U0 ≤ 400 V (400 V is in this row)
+    ['TT', 277, 0.07], // Table 41.1, 230 V < U0 ≤ 400 V
+    ['TN-S', 110, 0.8], // Table 41.1, 50 V < U0 ≤ 120 V [from memory]
+    ['TT', 480, 0.04], // Table 41.1, U0 > 400 V [from memory]
+    ['TN-S', 480, 0.1], // Table 41.1, U0 > 400 V [from memory]
+  ] as const)('%s at U0 %i V → %s s', (earthing, u0, seconds) => {
+    expect(defaultDisconnectionTimeS({ earthing, kind: 'radial', ratingA: 20, u0 })).toMatchObject({ seconds });
+  });
+
+  it.each([
+    ['TN-S', 5],
+    ['TT', 1],
+  ] as const)('a distribution circuit on %s keeps %s s at U0 277 V (BS 7671:2018 411.3.2.3 / 411.3.2.4)', (earthing, seconds) => {
+    expect(defaultDisconnectionTimeS({ earthing, kind: 'distribution', ratingA: 63, u0: 277 })).toMatchObject({ seconds });
+  });
+});

@@ -277,3 +277,117 @@ describe('ringProfile on readings taken from the solved network', () => {
     expect(profile.recordValue).toBeCloseTo(readings[3]!, 12);
   });
 });
+
+describe('ringProfile without socket positions (the usual case): judged on the range a sound ring can read', () => {
+  /**
+   * A ring in one cable with sockets at uneven distances: `gaps` are the cable lengths (m) between
+   * the board, each socket and back. Resistances from IEC 60228 Table 2 (mΩ/m at 20 °C): line
+   * `lineMilliohm`, cpc `cpcMilliohm`.
+   */
+  function cableRing(gaps: readonly number[], lineMilliohm: number, cpcMilliohm: number): Ring {
+    const line = gaps.map((m) => (m * lineMilliohm) / 1000);
+    const cpc = gaps.map((m) => (m * cpcMilliohm) / 1000);
+    return { n: gaps.length - 1, line, cpc, r1: line.reduce((a, b) => a + b, 0), r2: cpc.reduce((a, b) => a + b, 0) };
+  }
+  function readingsOf(ring: Ring, resistors: Resistor[], links: Array<[number, number]>, extraNodes = 0): Array<number | null> {
+    return Array.from({ length: ring.n }, (_, i) => {
+      const r = networkResistance(2 * ring.n + 4 + extraNodes, resistors, links, L(ring, i + 1), C(ring, i + 1));
+      return Number.isFinite(r) ? r : null;
+    });
+  }
+
+  // 2.5/1.0 cable: 7.41 and 18.1 mΩ/m (IEC 60228 Table 2), r2/r1 = 2.44. Eight sockets in two rooms,
+  // four near each end of an 88 m ring, the long run between them out of reach.
+  const twoRooms = cableRing([1, 1, 1, 1, 80, 1, 1, 1, 1], 7.41, 18.1);
+  // Seven sockets: two near the board, four in a far room, one on the way back (66 m).
+  const ring25_10 = cableRing([5, 3, 28, 2, 2, 2, 20, 4], 7.41, 18.1);
+
+  it('a sound 2.5/1.0 ring with its sockets in two rooms is consistent (network solved with mathjs), though even spacing would misjudge it', () => {
+    const ring = twoRooms;
+    const readings = readingsOf(ring, ringResistors(ring), endLinks(ring, 'opposite-ends'));
+    const profile = ringProfile({ r1: ring.r1, r2: ring.r2, readings });
+    expect(profile.verdict).toBe('consistent');
+    expect(profile.positionsGiven).toBe(false);
+    // The range: r1·r2/(r1+r2) … (r1+r2)/4 (closed form of two parallel paths), about 17 % apart for r2/r1 = 2.44.
+    expect(profile.soundRange!.low).toBeCloseTo((ring.r1 * ring.r2) / (ring.r1 + ring.r2), 12);
+    expect(profile.soundRange!.high).toBeCloseTo((ring.r1 + ring.r2) / 4, 12);
+    // low/high = 4k/(1+k)² with k = r2/r1 = 18.1/7.41 (IEC 60228): 0.824, the readings about 17 % apart.
+    const k = 18.1 / 7.41;
+    expect(profile.soundRange!.low / profile.soundRange!.high).toBeCloseTo((4 * k) / (1 + k) ** 2, 9);
+    // The same readings forced onto evenly spaced positions read as a fault: why positions are not assumed.
+    const evenly = readings.map((_, i) => (i + 1) / (readings.length + 1));
+    expect(ringProfile({ r1: ring.r1, r2: ring.r2, readings, positions: evenly }).verdict).toBe('low-points');
+  });
+
+  it('any sound uniform ring, any placement, any cpc/line ratio 0.5–3: consistent without positions (mathjs network)', () => {
+    fc.assert(
+      fc.property(uniformRingArbitrary, (ring) => {
+        const readings = readingsOf(ring, ringResistors(ring), endLinks(ring, 'opposite-ends'));
+        expect(ringProfile({ r1: ring.r1, r2: ring.r2, readings }).verdict).toBe('consistent');
+      }),
+      runs,
+    );
+  }, SLOW);
+
+  it('same ends linked with no socket near mid-ring: the shape is not clear, so it is reported low everywhere with both causes named (mathjs network)', () => {
+    const ring = twoRooms;
+    const profile = ringProfile({ r1: ring.r1, r2: ring.r2, readings: readingsOf(ring, ringResistors(ring), endLinks(ring, 'same-ends')) });
+    expect(profile.verdict).toBe('low-points');
+    expect(profile.message).toContain('same cable end');
+  });
+
+  it('same ends linked on the uneven 2.5/1.0 ring is named, with the interconnection that would read alike (mathjs network)', () => {
+    const readings = readingsOf(ring25_10, ringResistors(ring25_10), endLinks(ring25_10, 'same-ends'));
+    const profile = ringProfile({ r1: ring25_10.r1, r2: ring25_10.r2, readings });
+    expect(profile.verdict).toBe('same-end-linked');
+    expect(profile.message).toContain('same cable end');
+    expect(profile.message).toContain('interconnection');
+    // The closed form x(1−x)(r1+r2) agrees with the network at each socket (formula).
+    socketPoints(ring25_10).forEach((at, i) => expect(Math.abs(sameEndsRingReading(ring25_10.r1, ring25_10.r2, at.line) - readings[i]!)).toBeLessThan(TOLERANCE));
+  });
+
+  it('the two ends joined at the board (opposite ends linked) reads exactly like same-end linking: the message says so (mathjs network)', () => {
+    const ring = ring25_10;
+    const resistors = ringResistors(ring);
+    const end = ring.n + 1;
+    const joined: Array<[number, number]> = [...endLinks(ring, 'opposite-ends'), [L(ring, 0), L(ring, end)], [C(ring, 0), C(ring, end)]];
+    const bridged = readingsOf(ring, resistors, joined);
+    const sameEnds = readingsOf(ring, resistors, endLinks(ring, 'same-ends'));
+    bridged.forEach((r, i) => expect(Math.abs(r! - sameEnds[i]!)).toBeLessThan(TOLERANCE));
+    expect(ringProfile({ r1: ring.r1, r2: ring.r2, readings: bridged }).message).toContain('two ends joined');
+  });
+
+  it('a spur of 6 m of 2.5/1.5 read at socket 5 of the uneven ring is still a high point without positions (mathjs network)', () => {
+    // 6 m × 7.41 and 6 m × 12.1 mΩ/m (IEC 60228 Table 2) = 0.117 Ω in series, above (r1+r2)/4 + 0.05 Ω.
+    const ring = ring25_10;
+    const spurL = 2 * ring.n + 4;
+    const spurC = spurL + 1;
+    const resistors = [...ringResistors(ring), [L(ring, 5), spurL, 0.04446], [C(ring, 5), spurC, 0.0726]] as Resistor[];
+    const links = endLinks(ring, 'opposite-ends');
+    const readings = readingsOf(ring, resistors, links, 2);
+    readings[4] = networkResistance(2 * ring.n + 6, resistors, links, spurL, spurC);
+    const profile = ringProfile({ r1: ring.r1, r2: ring.r2, readings });
+    expect(profile.verdict).toBe('high-point');
+    expect(profile.suspects).toEqual([4]);
+  });
+
+  it('a bridge between sockets 2 and 5 of the uneven ring reads below the sound range: an interconnection (mathjs network)', () => {
+    // 1 m of 2.5/1.0 between them: 7.41 and 18.1 mΩ (IEC 60228 Table 2), across 34 m of ring.
+    const ring = ring25_10;
+    const resistors = [...ringResistors(ring), [L(ring, 2), L(ring, 5), 0.00741], [C(ring, 2), C(ring, 5), 0.0181]] as Resistor[];
+    const readings = readingsOf(ring, resistors, endLinks(ring, 'opposite-ends'));
+    const profile = ringProfile({ r1: ring.r1, r2: ring.r2, readings });
+    expect(profile.verdict).toBe('low-points');
+  });
+});
+
+describe('one cross-connection missing (why R1+R2 ≈ (r1+r2)/2 points at the links)', () => {
+  it('with only line A linked to cpc B, a socket mid-ring reads (r1+r2)/2: a series path (mathjs network)', () => {
+    // 9 sockets, 5 m apart, 2.5/1.5 (IEC 60228 Table 2: 7.41 and 12.1 mΩ/m): socket 5 is mid-ring; x·r1 + (1−x)·r2 at x = ½.
+    const n = 9;
+    const ring: Ring = { n, line: Array(n + 1).fill(0.03705), cpc: Array(n + 1).fill(0.0605), r1: 0.03705 * (n + 1), r2: 0.0605 * (n + 1) };
+    const oneLink: Array<[number, number]> = [[L(ring, 0), C(ring, n + 1)]];
+    const mid = networkResistance(2 * n + 4, ringResistors(ring), oneLink, L(ring, 5), C(ring, 5));
+    expect(mid).toBeCloseTo((ring.r1 + ring.r2) / 2, 9);
+  });
+});

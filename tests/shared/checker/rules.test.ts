@@ -171,8 +171,31 @@ const cases: Case[] = [
       radial({ id: 3, kind: 'spur', spurRingId: 2, spurOriginPoint: 'socket 5', spurLengthM: 5, cells: { ...cleanRadialCells, r1PlusR2: '0.60', zs: '0.93' } }),
     ]),
     codes: ['spur-r1r2-unexpected'],
+    // "socket 5" does not say where socket 5 is: the ring reads r1·r2/(r1+r2) = 0.3226 … (r1+r2)/4 = 0.3425 Ω
+    // (two parallel paths), + 5 m × 19.51 mΩ/m (IEC 60228) = 0.0976 → 0.420–0.440 Ω, ± 0.05 Ω → 0.37–0.49 Ω
+    expect: { code: 'spur-r1r2-unexpected', severity: 'warning', limit: '0.37–0.49 Ω', sourceIncludes: 'IEC 60228', messageIncludes: 'wherever socket 5 is' },
+  },
+  {
+    name: 'spur R1+R2 far from its length and an origin given as a fraction of the ring',
+    input: board([
+      ring({ id: 2 }),
+      radial({ id: 3, kind: 'spur', spurRingId: 2, spurOriginPoint: '5/11', spurLengthM: 5, cells: { ...cleanRadialCells, r1PlusR2: '0.60', zs: '0.93' } }),
+    ]),
+    codes: ['spur-r1r2-unexpected'],
     // ring at 5/11 by [r1·r2 + x(1−x)(r1−r2)²]/(r1+r2) = 0.3423 Ω, + 5 m × 19.51 mΩ/m (IEC 60228) = 0.4399 → 0.44 Ω
     expect: { code: 'spur-r1r2-unexpected', severity: 'warning', limit: '≈ 0.44 Ω (± 0.05 Ω)', sourceIncludes: 'IEC 60228' },
+  },
+  {
+    name: 'a spur from "socket 2" of a 2.5/1.0 ring, wherever socket 2 is, fits the ring range',
+    input: board([
+      ring({ id: 2, cpcCsaMm2: 1, cells: { ...cleanRingCells, ringR1: '0.50', ringRn: '0.50', ringR2: '1.22', r1PlusR2: '0.43', zs: '0.76' } }),
+      radial({ id: 3, kind: 'spur', spurRingId: 2, spurOriginPoint: 'socket 2', spurLengthM: 3, cells: { ...cleanRadialCells, r1PlusR2: '0.40', zs: '0.74' } }),
+    ]),
+    codes: [],
+    // ring r1 0.50, r2 1.22 (r2/r1 ≈ 18.1/7.41, IEC 60228) reads 0.355 … 0.43 Ω at a socket (two parallel paths);
+    // + 3 m of 2.5/1.5 × 19.51 mΩ/m = 0.059 → 0.41–0.49 Ω ± 0.05: 0.40 fits (a socket near the board). Taking
+    // "socket 2 of 10" as 2/11 of the ring would expect 0.400 + 0.059 = 0.46 ± 0.05 Ω and call 0.40 wrong.
+    expect: { code: '' },
   },
   {
     name: 'more spurs than points on the ring',

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { useMemo, useRef } from 'react';
+import { useMemo } from 'react';
 import { useParams } from 'react-router-dom';
 import { meResponseSchema, type User } from '../../../../shared/schemas/auth.ts';
 import type { BoardDetail, Circuit } from '../../../../shared/schemas/boards.ts';
@@ -37,20 +37,25 @@ function useSignedInPerson() {
  */
 function useFindings(detail: BoardDetail | undefined): Finding[] {
   const checker = useMemo(() => createBoardChecker(), []);
-  const inputs = useRef(new WeakMap<Circuit, CheckCircuit>());
+  // Last time's readings are fixed while the board is open (they belong to an earlier job); the
+  // circuits' inputs are built again only if they ever arrive anew.
+  const previousReadings = detail?.previousReadings;
+  const previousById = useMemo(() => new Map((previousReadings ?? []).map((p) => [p.circuitId, p])), [previousReadings]);
+  const inputs = useMemo(() => new WeakMap<Circuit, CheckCircuit>(), [previousById]);
   return useMemo(() => {
     if (!detail) return [];
     const circuits = detail.circuits.map((circuit) => {
-      let input = inputs.current.get(circuit);
+      let input = inputs.get(circuit);
       if (!input) {
-        input = boardToCheckInput({ board: detail.board, site: detail.site, circuits: [circuit] }).circuits[0]!;
-        inputs.current.set(circuit, input);
+        const previous = previousById.get(circuit.id);
+        input = boardToCheckInput({ board: detail.board, site: detail.site, circuits: [circuit], previousReadings: previous ? [previous] : undefined }).circuits[0]!;
+        inputs.set(circuit, input);
       }
       return input;
     });
     const { board, site } = boardToCheckInput({ board: detail.board, site: detail.site, circuits: [] });
     return checker({ board, site, circuits });
-  }, [checker, detail]);
+  }, [checker, detail, previousById, inputs]);
 }
 
 /** Route `/boards/:boardId`: the board console for one board. */

@@ -99,6 +99,9 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
     return next;
   }, [findings]);
 
+  // Last time's readings by circuit (boards started from an earlier job), for the status line.
+  const previousByCircuit = useMemo(() => new Map((detail.previousReadings ?? []).map((p) => [p.circuitId, p])), [detail.previousReadings]);
+
   const conflictsByCell = useMemo(() => {
     const map = new Map<number, Map<string, Conflict>>();
     for (const conflict of sync.conflicts) {
@@ -270,6 +273,8 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
   const activeFindings = active ? findingsIndex.byCircuit.get(active.circuitId)?.get(active.column) : undefined;
   const activeValue = active ? grid.read(active) : '';
   const activeReason = active && activeCircuit && isReadingKey(active.column) ? (activeCircuit.cells[active.column]?.reason ?? null) : null;
+  const activePrevious = active && isReadingKey(active.column) ? previousByCircuit.get(active.circuitId) : undefined;
+  const activePreviousCell = activePrevious && active && isReadingKey(active.column) ? activePrevious.cells[active.column] : undefined;
   const range = grid.range;
 
   return (
@@ -333,6 +338,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
         value={activeValue}
         reason={activeReason}
         findings={activeFindings}
+        previous={activePrevious ? { text: activePreviousCell?.text ?? '', reason: activePreviousCell?.reason ?? null, job: activePrevious.job } : null}
         refused={active ? grid.cellErrors.get(cellKey(active.circuitId, active.column)) : undefined}
         edit={grid.state.edit}
         selectionSize={range ? { rows: range.bottom - range.top + 1, cols: range.right - range.left + 1 } : null}

@@ -14,6 +14,11 @@ export interface StatusLineProps {
   /** The LIM's reason when the value is a limitation. */
   reason: string | null;
   findings: CellFindings | undefined;
+  /**
+   * Last time's reading of this cell when the board was started from an earlier job: the text as
+   * written then (empty when that circuit had none in this column) and that job.
+   */
+  previous: { text: string; reason: string | null; job: { kind: string; reference: string; visitDate: string } } | null;
   /** Text refused at this cell (not saved), if any. */
   refused: string | undefined;
   edit: EditState | null;
@@ -54,6 +59,13 @@ export function StatusLine(props: StatusLineProps) {
         )}
         <span className="font-mono">{props.value ? `= ${props.value}` : ''}</span>
         {props.reason && <span className="text-muted">Limitation: {props.reason}</span>}
+        {props.previous && (
+          <span className="text-muted" title={`The same circuit on ${props.previous.job.kind} ${props.previous.job.reference}`}>
+            Last time ({props.previous.job.reference}, {props.previous.job.visitDate}):{' '}
+            <span className="font-mono text-ink">{props.previous.text || 'not recorded'}</span>
+            {props.previous.reason ? ` (limitation: ${props.previous.reason})` : ''}
+          </span>
+        )}
         {props.edit && (
           <span className="text-muted">
             {props.edit.mode === 'replace' ? 'typing — Enter saves and goes down, Esc cancels' : 'editing in place — ← → move the caret, Enter saves, Esc cancels'}

@@ -10,7 +10,8 @@ import { writeSection } from './write-section.ts';
 export type FieldState =
   | { status: 'saving'; value: unknown }
   | { status: 'saved' }
-  | { status: 'error'; value: unknown; message: string }
+  /** Refused: the first message, and every issue the server named (paths within the section). */
+  | { status: 'error'; value: unknown; message: string; issues?: ReadonlyArray<{ path: string; message: string }> }
   /** Someone else changed this field since the version we had: theirs is now stored. */
   | { status: 'conflict'; mine: unknown; theirs: unknown };
 
@@ -139,7 +140,7 @@ export class RecordSaver {
           : error instanceof NetworkError
             ? 'Not saved: the server cannot be reached. Change the field again, or press Try again, once you are back online.'
             : 'Not saved: something went wrong.';
-      this.setState(section, field, { status: 'error', value, message });
+      this.setState(section, field, { status: 'error', value, message, issues: error instanceof ApiError ? error.issues : undefined });
       return 'refused';
     }
   }

@@ -1,4 +1,4 @@
-import { useImperativeHandle, useMemo, useState, type KeyboardEvent, type Ref } from 'react';
+import { useEffect, useImperativeHandle, useMemo, useState, type KeyboardEvent, type Ref } from 'react';
 import { inspectionAreas } from '../../../../shared/schemas/inspection-items.ts';
 import type { InspectionOutcome } from '../../../../shared/schemas/job-record.ts';
 import { RecordSection } from './record-sections.tsx';
@@ -77,6 +77,12 @@ export function InspectionsSchedule({
     return stored[itemId] ?? null;
   };
 
+  // Keep the active item in view while the person moves through the grid (not when the page opens).
+  useEffect(() => {
+    const grid = document.getElementById(gridId);
+    if (grid && grid === document.activeElement) document.getElementById(rowId(flatItems[active]!.id))?.scrollIntoView({ block: 'nearest' });
+  }, [active, gridId]);
+
   const activeItem = flatItems[active]!;
   const activeState = saver.state('inspections', activeItem.id);
 
@@ -88,8 +94,9 @@ export function InspectionsSchedule({
     }
     setMessage('');
     void saver.save('inspections', item.id, outcome);
+    // Move on at once, so the grid is at the next item when the observation form closes.
+    if (outcome !== null) setActive((i) => Math.min(i + 1, flatItems.length - 1));
     if (outcome === 'C1' || outcome === 'C2' || outcome === 'C3') onNeedsObservation(item.id, outcome);
-    else if (outcome !== null) setActive((i) => Math.min(i + 1, flatItems.length - 1));
   }
 
   function onKeyDown(event: KeyboardEvent<HTMLDivElement>) {
@@ -200,9 +207,6 @@ export function InspectionsSchedule({
                     role="row"
                     aria-selected={isActive}
                     onMouseDown={() => setActive(index)}
-                    ref={(el) => {
-                      if (isActive) el?.scrollIntoView({ block: 'nearest' });
-                    }}
                     className={`grid grid-cols-[3rem_1fr_13rem] items-baseline gap-2 border-t border-line px-2 py-1 ${
                       isActive ? 'bg-accent-soft outline-2 -outline-offset-2 outline-accent' : ''
                     }`}

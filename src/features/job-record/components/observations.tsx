@@ -41,6 +41,13 @@ export function useObservationList(): Array<[string, Observation]> {
     .sort((a, b) => a[1].number - b[1].number);
 }
 
+/** Their version of an observation after a conflict, in a few words. */
+function theirsText(theirs: unknown): string {
+  if (theirs === null) return ': they removed it';
+  const o = theirs as Partial<Observation>;
+  return o.text ? `: theirs reads “${o.text}”${o.code ? ` (${o.code})` : ''}` : '';
+}
+
 /** What the form opens with: an observation to edit, or a new one with some fields chosen. */
 export interface ObservationFormTarget {
   id?: string;
@@ -206,7 +213,10 @@ export function ObservationForm({ target, onDone }: { target: ObservationFormTar
     if (outcome === 'saved') onDone();
   }
 
-  const fieldError = (field: FormField) => errors?.fields[field];
+  // The server's own refusals (a board not on this job, a number taken meanwhile) name the field as `<id>.<field>`.
+  const serverIssues = state?.status === 'error' ? (state.issues ?? []) : [];
+  const serverError = (field: FormField) => serverIssues.find((issue) => issue.path.split('.').slice(-1)[0] === field && issue.path.includes(id))?.message;
+  const fieldError = (field: FormField) => errors?.fields[field] ?? serverError(field);
   const control = (field: FormField) => ({
     id: fid(field),
     name: field,
@@ -291,6 +301,7 @@ export function ObservationForm({ target, onDone }: { target: ObservationFormTar
               </option>
             ))}
           </select>
+          {errorText('boardId')}
         </div>
         <div className="space-y-1">
           <label htmlFor={fid('circuitId')} className="block font-medium">
@@ -304,6 +315,7 @@ export function ObservationForm({ target, onDone }: { target: ObservationFormTar
               </option>
             ))}
           </select>
+          {errorText('circuitId')}
         </div>
       </div>
       <div className="space-y-1">
@@ -322,6 +334,7 @@ export function ObservationForm({ target, onDone }: { target: ObservationFormTar
             </optgroup>
           ))}
         </select>
+        {errorText('inspectionItem')}
         {initial.inspectionItem && <p className="text-xs text-muted">Raised from item {initial.inspectionItem}: {inspectionItemsById.get(initial.inspectionItem)?.text}</p>}
       </div>
       <div className="space-y-2">
@@ -330,7 +343,29 @@ export function ObservationForm({ target, onDone }: { target: ObservationFormTar
         </button>
         <p className="text-xs text-muted">Enter saves (Ctrl+Enter in the description) · Esc closes without saving</p>
         <div role="alert" className="text-danger empty:hidden">
-          {state?.status === 'error' ? state.message : state?.status === 'conflict' ? 'Someone else changed this observation since you opened it: close and open it again to see theirs.' : ''}
+          {state?.status === 'error' && !formFields.some((field) => serverError(field)) && state.message}
+          {state?.status === 'conflict' && (
+            <span className="flex flex-wrap items-center gap-2">
+              <span>Someone else changed this observation since you opened it{theirsText(state.theirs)}.</span>
+              <button
+                type="button"
+                className="rounded border border-line-strong bg-surface px-2 py-0.5 text-ink"
+                onClick={() => void saver.keepMine('observations', id).then((outcome) => outcome === 'saved' && onDone())}
+              >
+                Keep mine
+              </button>
+              <button
+                type="button"
+                className="rounded border border-line-strong bg-surface px-2 py-0.5 text-ink"
+                onClick={() => {
+                  saver.takeTheirs('observations', id);
+                  onDone();
+                }}
+              >
+                Take theirs
+              </button>
+            </span>
+          )}
         </div>
       </div>
     </form>

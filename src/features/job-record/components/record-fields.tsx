@@ -5,7 +5,7 @@ import type { FieldState } from '../api/record-saver.ts';
 import { fieldDomId, focusNextField, useFieldState, useRecord } from './record-context.tsx';
 
 export const controlClass =
-  'block w-full rounded border border-line-strong bg-surface px-2 py-1 aria-invalid:border-danger aria-invalid:bg-danger-soft read-only:bg-paper disabled:bg-paper disabled:opacity-80';
+  'block w-full rounded border border-line-strong bg-surface px-2 py-1 aria-invalid:border-danger aria-invalid:bg-danger-soft [&[readonly]]:bg-paper disabled:bg-paper disabled:opacity-80';
 
 /** How a stored value reads to a person. */
 export function showValue(value: unknown, options?: readonly { value: string; label: string }[]): string {

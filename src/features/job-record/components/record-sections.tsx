@@ -249,7 +249,7 @@ export function ExtentSection() {
         {rows.length === 0 && <p className="text-muted">None recorded.</p>}
         <ol className="space-y-2">
           {rows.map((row, index) => (
-            <li key={index} className="grid gap-2 rounded border border-line p-2 sm:grid-cols-[10rem_1fr_1fr_auto]">
+            <li key={index} className="grid gap-2 rounded border border-line p-2 sm:grid-cols-[12rem_1fr_1fr_auto]">
               <div className="space-y-1">
                 <label htmlFor={`${baseId}-kind-${index}`} className="block text-xs font-medium">
                   Limitation {index + 1}: kind

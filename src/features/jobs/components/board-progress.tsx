@@ -1,11 +1,14 @@
-import { readingKeys } from '../../../../shared/schemas/columns.ts';
+import { optionalReadingKeys, readingKeys } from '../../../../shared/schemas/columns.ts';
+
+const countedKeys = readingKeys.filter((key) => !optionalReadingKeys.includes(key));
 
 /**
  * Reading cells that can be filled on a board: every reading column of every circuit. Circuits
- * where a column does not apply still take "N/A", which counts as filled.
+ * where a column does not apply still take "N/A", which counts as filled. Optional tests (the RCD
+ * at 5 × IΔn) are not counted.
  */
 export function readingCellCount(circuitCount: number): number {
-  return circuitCount * readingKeys.length;
+  return circuitCount * countedKeys.length;
 }
 
 /** Cells filled out of the board's reading cells, as a number and a bar. */

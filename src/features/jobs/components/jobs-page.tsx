@@ -70,6 +70,7 @@ export function JobsPage() {
   const activeBoard = boards.find((b) => b.id === activeBoardId) ?? null;
 
   const ctx: JobsContext = {
+    loaded: jobs.isSuccess,
     tree,
     shown,
     activeBoard,

@@ -67,7 +67,7 @@ function CurrentSignatures({ data }: { data: JobSignatures }) {
           const signature = data.signatures.find((s) => s.role === role && s.current);
           return (
             <li key={role} className="space-y-1 rounded border border-line p-2">
-              <p className="text-xs font-medium text-muted capitalize">{signingRoleLabels[role]}</p>
+              <p className="text-xs font-medium text-muted">{signingRoleLabels[role].replace(/^./, (c) => c.toUpperCase())}</p>
               {signature ? <SignatureCard signature={signature} /> : <p className="text-muted">Not signed yet.</p>}
             </li>
           );

@@ -112,6 +112,36 @@ describe('the findings list', () => {
   });
 });
 
+describe('readings not recorded yet', () => {
+  const missing = (circuitId: number, columns: string[]): Finding => ({
+    code: 'cells-missing',
+    severity: 'todo',
+    circuitId,
+    columns,
+    message: `Not recorded yet: ${columns.join(', ')}.`,
+    limit: null,
+    source: 'common practice',
+  });
+
+  it('when a half-typed board has faults and missing readings, then the faults are listed first and the missing readings are counted per column', async () => {
+    const { grid, user } = renderConsole(board(), { findings: [missing(11, ['polarity', 'zs']), missing(13, ['zs']), zsOverMax] });
+    const list = screen.getByRole('list', { name: 'Findings' });
+    const buttons = within(list).getAllByRole('button');
+    expect(buttons[0]).toHaveTextContent('Circuit 2 · Zs');
+    const toDo = within(list).getByRole('listitem', { name: 'Readings not recorded yet' });
+    expect(toDo).toHaveTextContent('Not recorded yet (3)');
+    const counts = within(toDo).getAllByRole('button');
+    expect(counts.map((b) => b.textContent)).toEqual([expect.stringMatching(/^Polarity1 circuit/), expect.stringMatching(/^Zs2 circuits/)]);
+    expect(screen.getByRole('heading', { name: /Findings/ })).toHaveTextContent('(1 · 3 readings to do)');
+    // A count jumps to the first circuit (in board order) still lacking that reading.
+    await user.click(counts[1]!);
+    expect(activeCell(grid)).toBe(cellOf(grid, '1', 'Zs'));
+    // A missing reading is marked quietly: not invalid.
+    expect(cellOf(grid, '3', 'Zs')).not.toHaveAttribute('aria-invalid');
+    expect(cellOf(grid, '3', 'Zs')).toHaveTextContent('○');
+  });
+});
+
 describe('conflicts', () => {
   it('when someone else wrote a cell first, then the cell shows both values and the two choices reach the sync engine', async () => {
     const { grid, user, resolved } = renderConsole(board(), {

@@ -31,7 +31,7 @@ export function EditJobForm({ job, onSaved }: { job: Job; onSaved: (job: Job) =>
     if (next.visitEndDate && next.visitEndDate < next.visitDate) return show({ fields: { visitEndDate: 'The last day of the visit cannot be before the first.' } });
     const parsed = updateJobBodySchema.safeParse({ version: job.version, changes });
     if (!parsed.success) return show(zodFormErrors(parsed.error, fields));
-    updateJob.mutate({ jobId: job.id, body: parsed.data }, { onSuccess: onSaved, onError: (error) => show(requestFormErrors(error, fields)) });
+    updateJob.mutate({ jobId: job.id, body: parsed.data }, { onSuccess: onSaved, onError: (error) => show(requestFormErrors(error, fields, 'reference')) });
   }
 
   const fieldError = (field: Field) => errors?.fields[field];

@@ -75,7 +75,7 @@ export function NewBoardForm({ tree, jobId: initialJobId, fixedJob = false, onCr
         </select>
       </FormField>
       <FormField id={id('reference')} label="Board reference" hint="As the client knows it, e.g. DB1, Garage CU" error={fieldError('reference')}>
-        <input {...control('reference', true)} autoComplete="off" className={inputClass} />
+        <input {...control('reference', true)} autoFocus={jobId !== null} autoComplete="off" className={inputClass} />
       </FormField>
       <div className="grid gap-3 sm:grid-cols-2">
         <FormField id={id('location')} label="Location" error={fieldError('location')}>

@@ -57,7 +57,7 @@ export function NewJobForm({ tree, siteId: initialSiteId, onCreated }: NewJobFor
     setErrors(null);
     const parsed = createJobBodySchema.safeParse(body);
     if (!parsed.success) return show(zodFormErrors(parsed.error, fields));
-    createJob.mutate(parsed.data, { onSuccess: onCreated, onError: (error) => show(requestFormErrors(error, fields)) });
+    createJob.mutate(parsed.data, { onSuccess: onCreated, onError: (error) => show(requestFormErrors(error, fields, 'reference')) });
   }
 
   const fieldError = (field: Field) => errors?.fields[field];
@@ -76,7 +76,7 @@ export function NewJobForm({ tree, siteId: initialSiteId, onCreated }: NewJobFor
         </select>
       </FormField>
       <FormField id={id('kind')} label="Kind of job" error={fieldError('kind')}>
-        <select {...control('kind')} value={kind} onChange={(event) => setKind(event.target.value as Job['kind'])} className={inputClass}>
+        <select {...control('kind')} autoFocus value={kind} onChange={(event) => setKind(event.target.value as Job['kind'])} className={inputClass}>
           {jobKinds.map((k) => (
             <option key={k} value={k}>
               {kindWords[k]}
