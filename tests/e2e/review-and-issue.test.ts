@@ -132,9 +132,15 @@ describe('review, lock and issue', () => {
     ]);
 
     // The reviewer accepts the Zs finding with a reason: j to it, a, the reason, Enter.
-    const selected = () => reviewer.page.evaluate(() => document.activeElement?.textContent ?? '');
-    for (let i = 0; i < 10 && !/Circuit 6L1 · Zs/.test(await selected()); i++) await reviewer.page.keyboard.press('j');
-    expect(await selected()).toMatch(/Circuit 6L1 · Zs/);
+    const selected = () => reviewer.page.evaluate(() => document.activeElement?.id ?? '');
+    const selectedText = () => reviewer.page.evaluate(() => document.activeElement?.textContent ?? '');
+    for (let i = 0; i < 10 && !/Circuit 6L1 · Zs/.test(await selectedText()); i++) {
+      const before = await selected();
+      await reviewer.page.keyboard.press('j');
+      // The selection moves on the next frame: wait for it before reading it.
+      await expect.poll(selected).not.toBe(before);
+    }
+    expect(await selectedText()).toMatch(/Circuit 6L1 · Zs/);
     await reviewer.page.keyboard.press('a');
     const reason = reviewer.page.getByRole('textbox', { name: 'Why is it accepted?' });
     await expect.poll(() => reason.evaluate((el) => el === document.activeElement)).toBe(true);
