@@ -321,16 +321,18 @@ function table(w: Writer, cols: readonly TableColumn[], rows: readonly (readonly
     const y = doc.y;
     if (rowIndex % 2 === 1) doc.rect(w.left, y, w.width, height).fillColor(stripe).fill();
     doc.fillColor(ink);
-    let x = w.left;
+    // One-line cells first, wrapped ones after: text extraction (copying, screen readers, the
+    // tests) then reads a row's number and readings as one line, whatever wraps.
+    const lefts = cols.map((_, i) => w.left + cols.slice(0, i).reduce((sum, c) => sum + c.width, 0));
+    const wrapped = cols.map((col, i) => col.wrap === true && lines > 1 && (row[i] ?? '') !== '');
     cols.forEach((col, i) => {
-      const text = row[i] ?? '';
-      if (col.wrap && lines > 1) {
-        doc.font('regular').fontSize(size).fillColor(ink);
-        doc.text(text, x + 2, y + 1.5, { width: col.width - 4, height: lines * line, ellipsis: true, lineGap: line - size * 1.17 });
-      } else {
-        cellText(doc, text, x, y + 1.5, col.width, col.align, size);
-      }
-      x += col.width;
+      if (!wrapped[i]) cellText(doc, row[i] ?? '', lefts[i]!, y + 1.5, col.width, col.align, size);
+    });
+    cols.forEach((col, i) => {
+      if (!wrapped[i]) return;
+      doc.font('regular').fontSize(size).fillColor(ink);
+      // `line` is a little more than the font's own line height, so `lines` lines always fit.
+      doc.text(row[i] ?? '', lefts[i]! + 2, y + 1.5, { width: col.width - 4, height: lines * line + 1, ellipsis: true });
     });
     doc.y = y + height;
     doc.moveTo(w.left, doc.y).lineTo(w.left + w.width, doc.y).lineWidth(0.25).strokeColor(rule).stroke();
