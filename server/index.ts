@@ -27,8 +27,15 @@ const applied = await migrateToLatest(db);
 if (applied.length > 0) console.log(`Applied migrations: ${applied.join(', ')}`);
 
 if (!(await databaseHasUsers(db))) {
-  await seedDemo(db);
-  console.log('Seeded the demo data into an empty database.');
+  try {
+    await seedDemo(db);
+    console.log('Seeded the demo data into an empty database.');
+  } catch (error) {
+    // Several instances starting at once on one empty PostgreSQL database: one seeds, the others
+    // find its people when their own (identical) seed is refused.
+    if (!(await databaseHasUsers(db))) throw error;
+    console.log('Another instance seeded the demo data meanwhile.');
+  }
 }
 // The demo sign-ins are printed while the demo accounts exist (they are demo data only).
 const demoPresent = await Promise.all(demoAccounts.map((a) => findUserByEmail(db, a.email)));
