@@ -11,12 +11,13 @@ const databaseUrl = process.env.DATABASE_URL;
 const { db, sqlite, pool } = isPostgresUrl(databaseUrl)
   ? { ...openPostgres(databaseUrl), sqlite: undefined }
   : { ...openDatabase(databasePath), pool: undefined };
+const databaseName = isPostgresUrl(databaseUrl) ? databaseUrl.replace(/\/\/[^@/]*@/, '//') : databasePath;
 await migrateToLatest(db);
 if (await databaseHasUsers(db)) {
-  console.log(`${databasePath} already has people in it; the demo data goes only into an empty database.`);
+  console.log(`${databaseName} already has people in it; the demo data goes only into an empty database.`);
 } else {
   await seedDemo(db);
-  console.log(`Seeded the demo data into ${databasePath}.`);
+  console.log(`Seeded the demo data into ${databaseName}.`);
 }
 sqlite?.close();
 await pool?.end();
