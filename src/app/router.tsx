@@ -55,6 +55,13 @@ export const appRoutes: RouteObject[] = [
             },
           },
           {
+            path: 'account/password',
+            lazy: async () => {
+              const { PasswordPage } = await import('../features/auth/components/password-page.tsx');
+              return { Component: PasswordPage };
+            },
+          },
+          {
             path: 'admin',
             element: (
               <RequireRole roles={['admin']} refusal="Only an admin can manage people, the company's details and the mailbox.">
