@@ -24,6 +24,7 @@ import { fileRoutes } from './routes/files.ts';
 import { issueRoutes } from './routes/issues.ts';
 import { jobRoutes } from './routes/jobs.ts';
 import { mailboxRoutes, mailRoutes } from './routes/mail.ts';
+import { reviewRoutes } from './routes/review.ts';
 import { signatureRoutes } from './routes/signatures.ts';
 import { siteRoutes } from './routes/sites.ts';
 import { userRoutes } from './routes/users.ts';
@@ -161,6 +162,7 @@ export function createApp(options: AppOptions): Express {
   api.use('/jobs', jobRoutes(db));
   api.use('/company', companyRoutes(db, files));
   api.use('/', siteRoutes(db));
+  api.use('/', reviewRoutes(db));
   api.use('/files', fileRoutes(db, files));
   api.use('/', signatureRoutes(db, files));
   api.use('/', mailRoutes(db, mailSender));

@@ -7,6 +7,8 @@ import { migrateToLatest } from './db/migrate.ts';
 import { demoAccounts, demoPassword } from './db/seed/demo-scenario.ts';
 import { databaseHasUsers, seedDemo } from './db/seed/seed-demo.ts';
 import { findUserByEmail } from './db/users.ts';
+import { warmUpFonts } from './pdf/fonts.ts';
+import { warmUpPdfRenderer } from './pdf/render-job-pdf.ts';
 import { startLocalMailServer, type LocalMailServer } from './mail/local-mail-server.ts';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
@@ -64,6 +66,11 @@ await appServices(app).mailSender.resume();
 
 const server = app.listen(port, () => {
   console.log(`Boardwalk is running at http://localhost:${port} (database: ${databasePath})`);
+  // Parse the PDF fonts and run the renderer once now, rather than in the first issue's request.
+  setImmediate(() => {
+    warmUpFonts();
+    warmUpPdfRenderer().catch((error: unknown) => console.error('PDF warm-up failed', error));
+  });
 });
 
 function shutdown() {

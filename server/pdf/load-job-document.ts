@@ -1,18 +1,11 @@
 import type { Board, Circuit } from '../../shared/schemas/boards.ts';
-import { companySchema, defaultCompany, type Company } from '../../shared/schemas/company.ts';
-import {
-  blankSection,
-  jobSectionKeys,
-  jobSectionSchemas,
-  nextInspectionDate,
-  overallAssessment,
-  type JobRecord,
-  type JobSectionKey,
-  type OverallAssessment,
-} from '../../shared/schemas/job-record.ts';
+import type { Company } from '../../shared/schemas/company.ts';
+import { nextInspectionDate, overallAssessment, type JobRecord, type OverallAssessment } from '../../shared/schemas/job-record.ts';
 import type { Job, Site } from '../../shared/schemas/sites.ts';
 import { loadBoard, loadCircuits } from '../db/boards.ts';
+import { loadCompany } from '../db/company.ts';
 import type { DB } from '../db/database.ts';
+import { loadJobRecord } from '../db/job-sections.ts';
 import { toJob, toSite } from '../db/mappers.ts';
 import type { SignatureRow } from '../db/types.ts';
 import { userNames } from '../db/users.ts';
@@ -59,29 +52,6 @@ export interface JobDocument {
 
 const embeddable = new Set(['image/png', 'image/jpeg']);
 
-/**
- * Reads a job's record: every section, parsed against its schema and filled out with the blank
- * section where the stored one lacks fields (a section never written is blank, version 0).
- */
-export async function loadJobRecord(db: DB, jobId: number): Promise<JobRecord> {
-  const rows = await db.selectFrom('job_sections').selectAll().where('job_id', '=', jobId).execute();
-  const stored = new Map(rows.map((row) => [row.section, row]));
-  const record = {} as Record<JobSectionKey, { data: unknown; version: number }>;
-  for (const key of jobSectionKeys) {
-    const row = stored.get(key);
-    const blank = blankSection(key);
-    let data: unknown = blank;
-    if (row) {
-      const parsed = jobSectionSchemas[key].safeParse(JSON.parse(row.data));
-      if (parsed.success) {
-        data = Array.isArray(blank) || typeof blank !== 'object' || blank === null ? parsed.data : { ...blank, ...(parsed.data as object) };
-      }
-    }
-    record[key] = { data, version: row?.version ?? 0 };
-  }
-  return record as JobRecord;
-}
-
 /** Loads every part of a job's document. Undefined when the job does not exist. */
 export async function loadJobDocument(db: DB, jobId: number, dataDir: string): Promise<JobDocument | undefined> {
   const jobRow = await db.selectFrom('jobs').selectAll().where('id', '=', jobId).executeTakeFirst();
@@ -120,12 +90,7 @@ export async function loadJobDocument(db: DB, jobId: number, dataDir: string): P
     });
   }
 
-  const companySetting = await db.selectFrom('app_settings').select('value').where('key', '=', 'company').executeTakeFirst();
-  let company: Company = defaultCompany;
-  if (companySetting) {
-    const parsed = companySchema.safeParse(JSON.parse(companySetting.value));
-    if (parsed.success) company = parsed.data;
-  }
+  const company = await loadCompany(db);
 
   const acceptanceRows = await db.selectFrom('finding_acceptances').selectAll().where('job_id', '=', jobId).orderBy('id').execute();
 
@@ -135,6 +100,7 @@ export async function loadJobDocument(db: DB, jobId: number, dataDir: string): P
     record,
     boards,
     assessment: overallAssessment(record.observations.data),
+    // From the last day of the visit, as the job screen counts it.
     nextInspection: nextInspectionDate(job.visitEndDate ?? job.visitDate, record.summary.data.nextInspectionMonths),
     signatures,
     company,

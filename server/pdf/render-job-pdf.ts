@@ -1,9 +1,10 @@
 import PDFDocument from 'pdfkit';
 import type { Board, Circuit } from '../../shared/schemas/boards.ts';
-import { columnByKey, columns, type ColumnDef, type ColumnKey } from '../../shared/schemas/columns.ts';
+import { columnByKey, columns, readingKeys, type ColumnDef, type ColumnKey } from '../../shared/schemas/columns.ts';
+import { defaultCompany } from '../../shared/schemas/company.ts';
 import { inspectionAreas } from '../../shared/schemas/inspection-items.ts';
-import { observationCodes, usualIntervalMonths, type Observation } from '../../shared/schemas/job-record.ts';
-import { fontBytes } from './fonts.ts';
+import { blankSection, jobSectionKeys, observationCodes, usualIntervalMonths, type Observation } from '../../shared/schemas/job-record.ts';
+import { parsedFonts } from './fonts.ts';
 import type { DocumentImage, DocumentSignature, JobDocument } from './load-job-document.ts';
 import {
   codeMeanings,
@@ -68,10 +69,11 @@ export function renderJobPdf(document: JobDocument, stamp: IssueStamp): Promise<
       ModDate: stamp.issuedAt,
     },
   });
-  const fonts = fontBytes();
-  doc.registerFont('regular', fonts.regular);
-  doc.registerFont('medium', fonts.medium);
-  doc.registerFont('bold', fonts.bold);
+  const fonts = parsedFonts();
+  // pdfkit accepts a parsed fontkit font as a source (its typings only list files and bytes).
+  doc.registerFont('regular', fonts.regular as never);
+  doc.registerFont('medium', fonts.medium as never);
+  doc.registerFont('bold', fonts.bold as never);
 
   const chunks: Buffer[] = [];
   doc.on('data', (chunk: Buffer) => chunks.push(chunk));
@@ -319,16 +321,18 @@ function table(w: Writer, cols: readonly TableColumn[], rows: readonly (readonly
     const y = doc.y;
     if (rowIndex % 2 === 1) doc.rect(w.left, y, w.width, height).fillColor(stripe).fill();
     doc.fillColor(ink);
-    let x = w.left;
+    // One-line cells first, wrapped ones after: text extraction (copying, screen readers, the
+    // tests) then reads a row's number and readings as one line, whatever wraps.
+    const lefts = cols.map((_, i) => w.left + cols.slice(0, i).reduce((sum, c) => sum + c.width, 0));
+    const wrapped = cols.map((col, i) => col.wrap === true && lines > 1 && (row[i] ?? '') !== '');
     cols.forEach((col, i) => {
-      const text = row[i] ?? '';
-      if (col.wrap && lines > 1) {
-        doc.font('regular').fontSize(size).fillColor(ink);
-        doc.text(text, x + 2, y + 1.5, { width: col.width - 4, height: lines * line, ellipsis: true, lineGap: line - size * 1.17 });
-      } else {
-        cellText(doc, text, x, y + 1.5, col.width, col.align, size);
-      }
-      x += col.width;
+      if (!wrapped[i]) cellText(doc, row[i] ?? '', lefts[i]!, y + 1.5, col.width, col.align, size);
+    });
+    cols.forEach((col, i) => {
+      if (!wrapped[i]) return;
+      doc.font('regular').fontSize(size).fillColor(ink);
+      // `line` is a little more than the font's own line height, so `lines` lines always fit.
+      doc.text(row[i] ?? '', lefts[i]! + 2, y + 1.5, { width: col.width - 4, height: lines * line + 1, ellipsis: true });
     });
     doc.y = y + height;
     doc.moveTo(w.left, doc.y).lineTo(w.left + w.width, doc.y).lineWidth(0.25).strokeColor(rule).stroke();
@@ -851,4 +855,38 @@ function footers(doc: Doc, left: string) {
     const pageText = `page ${i - range.start + 1} of ${range.count}`;
     doc.text(pageText, page.width - page.margins.right - doc.widthOfString(pageText), y, { lineBreak: false });
   }
+}
+
+/**
+ * Renders a small made-up document and throws it away, so the first issue after a start does not
+ * pay for compiling the layout code and reading the fonts' tables. Called once after the server
+ * starts listening; nothing is stored.
+ */
+export async function warmUpPdfRenderer(): Promise<void> {
+  const record = Object.fromEntries(jobSectionKeys.map((key) => [key, { data: blankSection(key), version: 0 }])) as JobDocument['record'];
+  const cells = Object.fromEntries(
+    readingKeys.map((key, i) => [key, { text: ['0.44', '>200', 'N/A', 'LIM', '✓', '500'][i % 6]!, reason: null, version: 1, updatedBy: null, updatedAt: null }]),
+  );
+  const circuit = (n: number): Circuit => ({
+    id: n, boardId: 1, position: n, version: 1, number: `${n}L${(n % 3) + 1}`, phase: null, description: 'Warm-up circuit', kind: 'radial',
+    wiringType: 'A', referenceMethod: 'C', points: 3, liveCsaMm2: 2.5, cpcCsaMm2: 1.5, maxDisconnectionS: 0.4, deviceStandard: '60898',
+    deviceType: 'B', ratingA: 16, breakingKa: 6, rcdType: 'A', rcdRatedResidualMa: 30, afdd: 'no', remarks: '', spurRingId: null,
+    spurOriginPoint: null, spurLengthM: null, maxZsByHandOhm: null, cells,
+  });
+  const document: JobDocument = {
+    job: { id: 1, siteId: 1, kind: 'EICR', reference: 'WARM-UP', visitDate: '2026-01-01', visitEndDate: null, limitations: '', state: 'approved', startedFromJobId: null, createdAt: '2026-01-01T00:00:00.000Z', version: 1 },
+    site: { id: 1, client: 'Warm-up', address: 'Nowhere', description: '', contactName: '', contactEmail: '', earthing: 'TN-C-S', nominalVoltageV: 230, zeOhm: 0.2, pfcKa: 1.5, version: 1 },
+    record,
+    boards: [{
+      board: { id: 1, jobId: 1, reference: 'W1', location: '', suppliedFrom: '', phases: 3, zdbOhm: 0.2, ipfKa: 1.5, polarityConfirmed: true, phaseSequenceConfirmed: true, instruments: '', state: 'open', lockedBy: null, lockedAt: null, version: 1 },
+      circuits: Array.from({ length: 12 }, (_, i) => circuit(i + 1)),
+    }],
+    assessment: { assessment: 'not yet known', reason: '' },
+    nextInspection: null,
+    signatures: [],
+    company: defaultCompany,
+    logo: null,
+    acceptances: [],
+  };
+  await renderJobPdf(document, { revision: 1, issuedAt: new Date(0), issuedBy: 'warm-up' });
 }

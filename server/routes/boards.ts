@@ -20,11 +20,14 @@ import { userNames } from '../db/users.ts';
 import { HttpError, notFound } from '../http-error.ts';
 import { currentUser, requireRole } from '../middleware/auth.ts';
 import type { Presence } from '../presence.ts';
+import { requireBoardLockable, requireJobWritable } from '../review/guards.ts';
 import { idParam } from './params.ts';
 
 async function requireBoard(db: DB, boardId: number): Promise<BoardRow> {
   const board = await findBoardRow(db, boardId);
   if (!board) throw notFound(`Board ${boardId}`);
+  // Every write loads its board through here: an approved or issued job refuses them all (423).
+  await requireJobWritable(db, board.job_id);
   return board;
 }
 
@@ -132,6 +135,7 @@ export function boardRoutes(db: DB, presence: Presence): Router {
     await db.transaction().execute(async (trx) => {
       const board = await requireBoard(trx, boardId);
       if (board.state === 'locked') throw new HttpError('locked', `Board ${board.reference} is already locked.`);
+      await requireBoardLockable(trx, boardId);
       await setBoardLock(trx, board, { locked: true, userId: user.id });
     });
     res.json({ board: await loadBoard(db, boardId) });

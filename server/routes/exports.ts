@@ -7,7 +7,7 @@ import { loadBoard, loadBoardWithContext, loadCircuits } from '../db/boards.ts';
 import type { DB } from '../db/database.ts';
 import { toJob, toSite } from '../db/mappers.ts';
 import { notFound } from '../http-error.ts';
-import { loadJobRecord } from '../pdf/load-job-document.ts';
+import { loadJobRecord } from '../db/job-sections.ts';
 import { idParam } from './params.ts';
 
 /** A column's heading in the CSV: the trade's label with its unit, e.g. "Zs (Ω)". */

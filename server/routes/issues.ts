@@ -55,7 +55,15 @@ export function issueRoutes(db: DB, options: { dataDir: string }): Router {
     const pdf = await renderJobPdf(document, { revision, issuedAt, issuedBy: user.name });
     const sha256 = sha256Hex(pdf);
     const relative = `issued/job-${jobId}/${safeName(job.reference)}-rev${revision}-${sha256.slice(0, 12)}.pdf`;
-    await writeNewFile(dataDir, relative, pdf);
+    try {
+      await writeNewFile(dataDir, relative, pdf);
+    } catch (error) {
+      // The same revision with the same bytes is already on disk: another request is issuing it.
+      if ((error as NodeJS.ErrnoException).code === 'EEXIST') {
+        throw new HttpError('conflict', `${job.reference} is being issued by another request; look again in a moment.`);
+      }
+      throw error;
+    }
 
     try {
       await db.transaction().execute(async (trx) => {
@@ -74,7 +82,7 @@ export function issueRoutes(db: DB, options: { dataDir: string }): Router {
         await trx.updateTable('jobs').set({ state: 'issued', version: job.version + 1 }).where('id', '=', jobId).execute();
         await trx
           .insertInto('job_history')
-          .values({ job_id: jobId, section: null, field: 'state', action: 'issued', old_text: JSON.stringify(job.state), new_text: JSON.stringify('issued'), reason: `revision ${revision}, SHA-256 ${sha256}`, user_id: user.id, at, version: job.version + 1 })
+          .values({ job_id: jobId, section: null, field: 'state', action: 'issued', old_text: JSON.stringify(job.state), new_text: JSON.stringify('issued'), reason: `revision ${revision}`, user_id: user.id, at, version: job.version + 1 })
           .execute();
       });
     } catch (error) {
@@ -89,8 +97,8 @@ export function issueRoutes(db: DB, options: { dataDir: string }): Router {
 
   router.get('/jobs/:jobId/issues', async (req, res) => {
     const jobId = idParam(req, 'jobId');
-    await requireJob(db, jobId);
-    res.json({ issues: await listIssues(db, jobId) });
+    const job = await requireJob(db, jobId);
+    res.json({ job: toJob(job), issues: await listIssues(db, jobId) });
   });
 
   router.get('/jobs/:jobId/issues/:revision/pdf', async (req, res) => {

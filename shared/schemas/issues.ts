@@ -22,8 +22,8 @@ export const jobIssueSchema = z.object({
 });
 export type JobIssue = z.infer<typeof jobIssueSchema>;
 
-/** `GET /api/jobs/:jobId/issues`: newest revision first. */
-export const jobIssueListResponseSchema = z.object({ issues: z.array(jobIssueSchema) });
+/** `GET /api/jobs/:jobId/issues`: the job (for its state) and its revisions, newest first. */
+export const jobIssueListResponseSchema = z.object({ job: jobSchema, issues: z.array(jobIssueSchema) });
 export type JobIssueListResponse = z.infer<typeof jobIssueListResponseSchema>;
 
 /** `POST /api/jobs/:jobId/issue` answers the new revision and the job in its new state. */

@@ -39,6 +39,11 @@ export function AppLayout() {
           <NavLink to="/jobs" className={navLinkClass}>
             Jobs
           </NavLink>
+          {(me?.role === 'reviewer' || me?.role === 'admin') && (
+            <NavLink to="/review" className={navLinkClass}>
+              Review
+            </NavLink>
+          )}
           {me?.role === 'admin' && (
             <NavLink to="/admin" className={navLinkClass}>
               Admin

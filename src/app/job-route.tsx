@@ -8,6 +8,8 @@ import { JobRecordPage } from '../features/job-record/components/job-record-page
 import { SendPanel } from '../features/mail/components/send-panel.tsx';
 import { SigningPanel } from '../features/signing/components/signing-panel.tsx';
 import type { JobScreenAction } from '../features/job-record/commands.ts';
+import { IssuePanel } from '../features/issue/components/issue-panel.tsx';
+import { JobStatePanel } from '../features/review/components/job-state-panel.tsx';
 import type { JobDetail } from '../../shared/schemas/jobs.ts';
 
 /**
@@ -19,14 +21,16 @@ export function JobRoute() {
   return <JobRecordPage actions={jobActions} panels={<JobPanels />} />;
 }
 
-/** Signing and sending to the client, beside the record. */
+/** The job's state and gate, signing and sending to the client, beside the record. */
 function JobPanels() {
   const jobId = Number(useParams().jobId);
   const { data: me } = useMe();
-  if (!me || !Number.isSafeInteger(jobId)) return null;
+  if (!me || !Number.isSafeInteger(jobId) || jobId <= 0) return null;
   return (
     <>
+      <JobStatePanel jobId={jobId} role={me.role} />
       <SigningPanel jobId={jobId} person={{ role: me.role, name: me.name }} />
+      <IssuePanel jobId={jobId} role={me.role} />
       <SendPanel jobId={jobId} personRole={me.role} />
     </>
   );

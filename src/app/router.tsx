@@ -62,6 +62,20 @@ export const appRoutes: RouteObject[] = [
             },
           },
           {
+            path: 'review',
+            lazy: async () => {
+              const { ReviewQueueRoute } = await import('./review-routes.tsx');
+              return { Component: ReviewQueueRoute };
+            },
+          },
+          {
+            path: 'review/:jobId',
+            lazy: async () => {
+              const { ReviewJobRoute } = await import('./review-routes.tsx');
+              return { Component: ReviewJobRoute };
+            },
+          },
+          {
             path: 'admin',
             element: (
               <RequireRole roles={['admin']} refusal="Only an admin can manage people, the company's details and the mailbox.">

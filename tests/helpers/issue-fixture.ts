@@ -7,7 +7,7 @@ import type { JobSectionData, JobSectionKey } from '../../shared/schemas/job-rec
 import type { DB } from '../../server/db/database.ts';
 
 /**
- * Invented data for tests and the PDF benchmark: a full EICR record (Kestrel & Pine Electrical,
+ * Invented data for tests and the PDF benchmark: a full EICR record (Halden & Brook Electrical,
  * a block of flats on Quince Row), readings on every circuit, a three-phase board numbered per
  * phase, signatures and a logo as PNG files under a data folder. None of it is a real place,
  * person or reading.
@@ -79,10 +79,10 @@ export async function writeSection<K extends JobSectionKey>(db: DB, jobId: numbe
 export async function addCompany(db: DB, dataDir: string, userId: number): Promise<void> {
   const logo = await storeFile(db, dataDir, 'logo', 'logo.png', signaturePng(5, 200, 60), null, userId);
   const company = {
-    name: 'Kestrel & Pine Electrical Ltd',
+    name: 'Halden & Brook Electrical Ltd',
     address: 'Unit 4, Mill Yard, Harrowgate Lane, Eastbridge EB4 2QT',
     phone: '01632 960418',
-    email: 'office@kestrel-pine.example',
+    email: 'office@halden-brook.example',
     registration: 'Registered contractor no. 55-0913',
     referencePattern: '{kind}-{yyyy}-{seq:4}',
     logoFileId: logo,

@@ -1,6 +1,7 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { sql } from 'kysely';
 import { createTestApp, type TestApp } from '../helpers/test-app.ts';
+import { completeBoard } from './review/review-fixture.ts';
 
 let t: TestApp;
 let board: number;
@@ -114,6 +115,9 @@ describe('PUT a cell', () => {
 });
 
 describe('lock and unlock', () => {
+  // Locking needs a board that passes its gate (tests/server/review/board-gate.test.ts).
+  beforeEach(() => completeBoard(t));
+
   it('when a tester locks, then 403 and the board stays open', async () => {
     const tester = await t.signIn('tester');
     const res = await tester.post(`/api/boards/${board}/lock`);
@@ -125,7 +129,7 @@ describe('lock and unlock', () => {
   it('when a reviewer locks, then every write answers 423 and nothing changes', async () => {
     const reviewer = await t.signIn('reviewer');
     const tester = await t.signIn('tester');
-    await tester.put(cellUrl(ring, 'zs')).send({ text: '0.44', version: 0 });
+    await tester.put(cellUrl(ring, 'zs')).send({ text: '0.45', version: 1 });
     const locked = await reviewer.post(`/api/boards/${board}/lock`);
     expect(locked.status).toBe(200);
     expect(locked.body.board).toMatchObject({ state: 'locked', lockedBy: { name: 'Rhea Reviewer' } });

@@ -105,6 +105,19 @@ describe('POST /api/jobs/:jobId/issue', () => {
     expect(await t.db.selectFrom('job_issues').selectAll().execute()).toHaveLength(1);
   });
 
+  it('when the same job is issued twice at once, then one revision is made and the other request gets 409', async () => {
+    await approvedAndSigned();
+    const reviewer = await t.signIn('reviewer');
+    const answers = await Promise.all([reviewer.post(`/api/jobs/${t.ids.job}/issue`), reviewer.post(`/api/jobs/${t.ids.job}/issue`)]);
+    expect(answers.map((a) => a.status).sort()).toEqual([201, 409]);
+    expect(await t.db.selectFrom('job_issues').selectAll().execute()).toHaveLength(1);
+    const files = await t.db.selectFrom('files').selectAll().where('kind', '=', 'issued-pdf').execute();
+    expect(files).toHaveLength(1);
+    // Only the issued file is left on disk, and it is the one recorded.
+    const dir = path.join(t.dataDir, path.dirname(files[0]!.path));
+    expect(fs.readdirSync(dir)).toEqual([path.basename(files[0]!.path)]);
+  });
+
   it('when the job does not exist, then 404; when the id is not a number, then 400', async () => {
     const admin = await t.signIn('admin');
     expect((await admin.post('/api/jobs/9999/issue')).status).toBe(404);

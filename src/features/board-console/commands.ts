@@ -20,6 +20,8 @@ export interface ConsoleContext {
   sync: BoardSync;
   /** The signed-in person's role; null while it is not known. */
   role: Role | null;
+  /** Why the board cannot be locked yet (shared/review/gate.ts); null or absent while not known. */
+  lockReasons?: readonly string[] | null;
   grid: GridController;
   /** The conflict on the active cell, if any. */
   activeConflict: Conflict | null;
@@ -127,22 +129,15 @@ function detailsOf(circuit: Circuit): Partial<CircuitFields> {
   };
 }
 
-function csvCell(text: string): string {
-  return /[",\n\r]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
-}
-
-/** The board's schedule as CSV: one header line of column labels (with units), one line per circuit. */
-export function boardCsv(detail: BoardDetail, read: (circuit: Circuit, column: ColumnKey) => string): string {
-  const header = ['Circuit', ...columns.map((c) => (c.unit ? `${c.label} (${c.unit})` : c.label)), 'LIM reasons'];
-  const lines = [header.map(csvCell).join(',')];
-  for (const circuit of detail.circuits) {
-    const reasons = columns
-      .filter((c) => isReadingKey(c.key) && circuit.cells[c.key as keyof Circuit['cells']]?.reason)
-      .map((c) => `${c.label}: ${circuit.cells[c.key as keyof Circuit['cells']]?.reason ?? ''}`)
-      .join('; ');
-    lines.push([circuit.number, ...columns.map((c) => read(circuit, c.key)), reasons].map(csvCell).join(','));
-  }
-  return `${lines.join('\r\n')}\r\n`;
+/**
+ * Starts a download of a file the server makes (it answers with `Content-Disposition: attachment`,
+ * so the page stays where it is).
+ */
+function downloadFromServer(url: string): void {
+  const link = document.createElement('a');
+  link.href = url;
+  link.download = '';
+  link.click();
 }
 
 // ---- the commands ------------------------------------------------------------------------
@@ -585,7 +580,10 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
       keywords: ['lock', 'review', 'finish', 'freeze'],
       when: (ctx) => {
         if (ctx.role !== 'reviewer' && ctx.role !== 'admin') return 'Only a reviewer or an admin can lock a board';
-        return ctx.detail.board.state === 'locked' ? 'The board is already locked' : true;
+        if (ctx.detail.board.state === 'locked') return 'The board is already locked';
+        // The completeness gate, shown before anyone tries; the server checks it again at locking.
+        const reasons = ctx.lockReasons ?? [];
+        return reasons.length === 0 ? true : `Not yet — ${reasons.length} ${reasons.length === 1 ? 'reason' : 'reasons'}: ${reasons.join(' · ')}`;
       },
       run: async (ctx) => {
         if (ctx.grid.stateRef.current.edit) ctx.grid.commitEdit(null);
@@ -614,14 +612,22 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.export-csv',
-      label: 'Export the board as CSV',
+      label: 'Export CSV: the board’s schedule for a spreadsheet',
       group: groups.board,
-      keywords: ['download', 'spreadsheet', 'csv', 'export'],
+      keywords: ['download', 'spreadsheet', 'csv', 'export', 'excel'],
       run: (ctx) => {
-        const csv = boardCsv(ctx.detail, (circuit, column) => ctx.grid.read({ circuitId: circuit.id, column }));
-        const name = `${ctx.detail.board.reference.replace(/[^\w.-]+/g, '-') || 'board'}.csv`;
-        ctx.ui.download(name, 'text/csv;charset=utf-8', csv);
-        ctx.grid.say(`Exported ${name}.`);
+        downloadFromServer(`/api/boards/${ctx.detail.board.id}/export.csv`);
+        ctx.grid.say(`Exporting board ${ctx.detail.board.reference} as CSV: the readings saved on the server, with the board’s details above them.`);
+      },
+    },
+    {
+      id: 'console.download-job-json',
+      label: 'Download JSON: the whole job for your own records',
+      group: groups.board,
+      keywords: ['download', 'json', 'export', 'backup', 'job', 'record'],
+      run: (ctx) => {
+        downloadFromServer(`/api/jobs/${ctx.detail.job.id}/export.json`);
+        ctx.grid.say(`Downloading job ${ctx.detail.job.reference} as JSON: its record and every board as saved on the server.`);
       },
     },
 

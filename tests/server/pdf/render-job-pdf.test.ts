@@ -1,7 +1,11 @@
+import os from 'node:os';
 import * as fontkit from 'fontkit';
 import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { columns, readingKeys } from '../../../shared/schemas/columns.ts';
+import { openDatabase } from '../../../server/db/database.ts';
+import { migrateToLatest } from '../../../server/db/migrate.ts';
+import { seedDemo } from '../../../server/db/seed/seed-demo.ts';
 import { fontPath, type FontName } from '../../../server/pdf/fonts.ts';
 import { loadJobDocument, type JobDocument } from '../../../server/pdf/load-job-document.ts';
 import { renderJobPdf } from '../../../server/pdf/render-job-pdf.ts';
@@ -14,7 +18,7 @@ const flat = (text: string) => text.replace(/\s+/g, ' ');
 describe('the PDF fonts', () => {
   // Source: the fonts' own character maps, read with fontkit (the font library pdfkit uses).
   it.each(['regular', 'medium', 'bold'] as FontName[])('when the %s face is opened, then it has Ω ≥ ✓ ✗ Δ ² µ', (name) => {
-    const font = fontkit.openSync(fontPath(name)) as fontkit.Font;
+    const font = fontkit.openSync(fontPath(name));
     for (const sign of ['Ω', '≥', '✓', '✗', 'Δ', '²', 'µ', '’']) {
       expect(font.hasGlyphForCodePoint(sign.codePointAt(0)!), `${sign} in ${name}`).toBe(true);
     }
@@ -139,7 +143,7 @@ describe('the issued PDF of an EICR', () => {
   });
 
   it('when it is read, then the company details are on the cover', () => {
-    expect(pages[0]!.text).toContain('Kestrel & Pine Electrical Ltd');
+    expect(pages[0]!.text).toContain('Halden & Brook Electrical Ltd');
     expect(pages[0]!.text).toContain('Electrical Installation Condition Report');
   });
 
@@ -147,5 +151,40 @@ describe('the issued PDF of an EICR', () => {
     // Every column of the registry appears in one of the two tables (details or results).
     expect(columns.filter((c) => c.storage === 'reading').length).toBe(readingKeys.length);
     for (const heading of ['r1', 'rn', 'r2', 'R1+R2', 'Zs', 'IΔn', 'L-E', 'Polarity']) expect(text).toContain(heading);
+  });
+});
+
+describe('the issued PDF of the demo EICR', () => {
+  it('when rendered, then every circuit of every board is there with all its readings in column order, and every page is numbered', async () => {
+    const { db, sqlite } = openDatabase(':memory:');
+    try {
+      await migrateToLatest(db);
+      await seedDemo(db);
+      const eicr = await db.selectFrom('jobs').select('id').where('kind', '=', 'EICR').executeTakeFirstOrThrow();
+      const document = (await loadJobDocument(db, eicr.id, os.tmpdir()))!;
+      const pdf = await renderJobPdf(document, { revision: 1, issuedAt: new Date('2026-12-02T10:00:00.000Z'), issuedBy: 'Demo Reviewer' });
+      const parser = new PDFParse({ data: new Uint8Array(pdf) });
+      const { pages, text } = await parser.getText();
+      await parser.destroy();
+      const lines = text.split('\n');
+      let circuitsSeen = 0;
+      for (const { board, circuits } of document.boards) {
+        for (const circuit of circuits) {
+          const readings = readingKeys.map((key) => circuit.cells[key]?.text ?? '').filter(Boolean);
+          const row = lines.find((line) => line.startsWith(`${circuit.number} `) && line.includes(` ${readings.join(' ')}`));
+          expect(row, `board ${board.reference} circuit ${circuit.number}: ${readings.join(' ')}`).toBeDefined();
+          circuitsSeen++;
+        }
+      }
+      expect(circuitsSeen).toBeGreaterThanOrEqual(64);
+      for (const page of pages) expect(page.text).toContain(`page ${page.num} of ${pages.length}`);
+      const all = flat(text);
+      for (const observation of Object.values(document.record.observations.data)) {
+        if (observation) expect(all).toContain(`${observation.number} ${observation.code}`);
+      }
+      expect(all).toContain('safe isolation');
+    } finally {
+      sqlite.close();
+    }
   });
 });

@@ -8,6 +8,7 @@ import type { Finding } from '../../../../shared/schemas/findings.ts';
 import { createBoardChecker } from '../../../../shared/checker/index.ts';
 import { storedValueFindingCode } from '../../../../shared/schemas/fit-circuit.ts';
 import { ApiError, apiGet } from '../../../lib/api-client.ts';
+import { useLockReasons } from '../api/board-gate.ts';
 import { useBoardSync } from '../sync/use-board-sync.ts';
 import { BoardConsole } from './board-console.tsx';
 
@@ -79,6 +80,7 @@ function BoardConsoleLoader({ boardId }: { boardId: number }) {
   const sync = useBoardSync(boardId);
   const me = useSignedInPerson();
   const findings = useFindings(sync.detail);
+  const lockReasons = useLockReasons(sync.detail, findings);
 
   if (!sync.detail) {
     return (
@@ -96,5 +98,5 @@ function BoardConsoleLoader({ boardId }: { boardId: number }) {
       </div>
     );
   }
-  return <BoardConsole sync={sync} detail={sync.detail} findings={findings} role={me.data?.role ?? null} />;
+  return <BoardConsole sync={sync} detail={sync.detail} findings={findings} role={me.data?.role ?? null} lockReasons={lockReasons} />;
 }

@@ -30,6 +30,8 @@ export interface BoardConsoleProps {
   /** The checker's findings on `detail` as shown (see BoardConsolePage). */
   findings: readonly Finding[];
   role: Role | null;
+  /** Why the board cannot be locked yet (the completeness gate); null while not known. */
+  lockReasons?: readonly string[] | null;
 }
 
 function downloadText(fileName: string, mimeType: string, text: string): void {
@@ -59,7 +61,7 @@ function keepTextEditingKeys(event: KeyboardEvent) {
  * and the status line; the palette and the keys overlay on top. One command registry feeds the
  * palette, the key bindings and the overlay.
  */
-export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps) {
+export function BoardConsole({ sync, detail, findings, role, lockReasons = null }: BoardConsoleProps) {
   const board = detail.board;
   const lockedReason =
     board.state === 'locked' ? `Board ${board.reference} is locked${board.lockedBy ? ` by ${board.lockedBy.name}` : ''}: a reviewer must unlock it before anything changes.` : null;
@@ -172,6 +174,7 @@ export function BoardConsole({ sync, detail, findings, role }: BoardConsoleProps
     detail,
     sync,
     role,
+    lockReasons,
     grid,
     activeConflict,
     ui: {

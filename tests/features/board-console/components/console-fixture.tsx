@@ -78,6 +78,8 @@ export interface ConsoleHarnessOptions {
   findings?: Finding[];
   conflicts?: Conflict[];
   role?: Role | null;
+  /** The completeness gate's reasons the console shows before locking. */
+  lockReasons?: readonly string[] | null;
 }
 
 /**
@@ -125,7 +127,7 @@ export function renderConsole(initial: BoardDetail, options: ConsoleHarnessOptio
       }),
       [detail],
     );
-    return <BoardConsole sync={sync} detail={detail} findings={options.findings ?? []} role={options.role ?? 'tester'} />;
+    return <BoardConsole sync={sync} detail={detail} findings={options.findings ?? []} role={options.role ?? 'tester'} lockReasons={options.lockReasons ?? null} />;
   }
 
   const user = userEvent.setup();

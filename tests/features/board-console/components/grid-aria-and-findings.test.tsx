@@ -187,6 +187,24 @@ describe('commands from the palette', () => {
     expect(option).toHaveAccessibleName(/not available: Only a reviewer or an admin can lock a board/);
   });
 
+  it('when a reviewer opens the palette on a board whose gate fails, then locking is disabled with every reason of the gate', async () => {
+    const reasons = ['Zs not recorded on circuits 2, 3.', 'Circuit 1: LIM in Zs has no reason recorded.'];
+    const { user } = renderConsole(board(), { role: 'reviewer', lockReasons: reasons });
+    await user.keyboard('{Control>}k{/Control}');
+    const dialog = await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('lock the board');
+    const option = within(dialog).getByRole('option', { name: /Lock the board/ });
+    expect(option).toHaveAccessibleName(/not available: Not yet — 2 reasons: Zs not recorded on circuits 2, 3\. · Circuit 1: LIM in Zs has no reason recorded\./);
+  });
+
+  it('when a reviewer opens the palette on a board whose gate passes, then locking is offered', async () => {
+    const { user } = renderConsole(board(), { role: 'reviewer', lockReasons: [] });
+    await user.keyboard('{Control>}k{/Control}');
+    const dialog = await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('lock the board');
+    expect(within(dialog).getByRole('option', { name: /Lock the board/ })).not.toHaveAccessibleName(/not available/);
+  });
+
   it('when a limitation is marked with a reason, then LIM and the reason are written on the active cell', async () => {
     const { grid, user, calls } = renderConsole(board());
     await user.click(cellOf(grid, '3', 'Zs'));
