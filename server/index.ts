@@ -28,7 +28,7 @@ if (applied.length > 0) console.log(`Applied migrations: ${applied.join(', ')}`)
 
 if (!(await databaseHasUsers(db))) {
   try {
-    await seedDemo(db);
+    await seedDemo(db, { dataDir });
     console.log('Seeded the demo data into an empty database.');
   } catch (error) {
     // Several instances starting at once on one empty PostgreSQL database: one seeds, the others

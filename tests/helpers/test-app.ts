@@ -158,7 +158,15 @@ export async function openTestDatabase() {
   if (!testPostgresUrl) {
     const { db, sqlite } = openDatabase(':memory:');
     await migrateToLatest(db);
-    return { db, sqlite, pool: undefined, postgres: undefined, close: async () => sqlite.close() };
+    return {
+      db,
+      sqlite,
+      pool: undefined,
+      postgres: undefined,
+      close: async () => {
+        sqlite.close();
+      },
+    };
   }
   const templateName = await migratedTemplate();
   let name = emptiedDatabases.pop();

@@ -1,3 +1,6 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
@@ -11,7 +14,7 @@ import { siteListResponseSchema } from '../../shared/schemas/sites.ts';
 import { asOwnPage, openTestDatabase } from '../helpers/test-app.ts';
 
 let db: DB;
-let close: () => void;
+let close: () => Promise<void>;
 let agent: ReturnType<typeof request.agent>;
 let eic: JobDetail;
 let eicr: JobDetail;
@@ -19,9 +22,13 @@ let eicr: JobDetail;
 beforeAll(async () => {
   const opened = await openTestDatabase(); // SQLite, or PostgreSQL in .ci/run's second pass
   db = opened.db;
-  close = opened.close;
-  await seedDemo(db);
-  const app = asOwnPage(createApp({ db, sqlite: opened.sqlite, postgres: opened.pool, sessionSecret: 'demo-records-test', signInAttemptsPerMinute: 1000 }));
+  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'boardwalk-demo-records-'));
+  await seedDemo(db, { dataDir });
+  close = async () => {
+    await opened.close();
+    fs.rmSync(dataDir, { recursive: true, force: true });
+  };
+  const app = asOwnPage(createApp({ db, sqlite: opened.sqlite, postgres: opened.pool, sessionSecret: 'demo-records-test', signInAttemptsPerMinute: 1000, dataDir }));
   agent = request.agent(app);
   expect((await agent.post('/api/auth/sign-in').send({ email: 'tester@boardwalk.test', password: demoPassword })).status).toBe(200);
   const jobs = await db.selectFrom('jobs').select(['id', 'kind']).execute();
