@@ -106,15 +106,11 @@ class BoardwalkPostgresDialect extends PostgresDialect {
 }
 
 /**
- * Opens a PostgreSQL database (DATABASE_URL). `schema`, when given, is put first on the search path
- * of every connection (tests make a fresh schema per app).
+ * Opens a PostgreSQL database (DATABASE_URL). The tables live in the connection's current schema
+ * (`public` unless the URL or the role says otherwise).
  */
-export function openPostgres(url: string, options: { schema?: string; max?: number } = {}): OpenedPostgres {
-  const pool = new pg.Pool({
-    connectionString: url,
-    max: options.max ?? 10,
-    ...(options.schema ? { options: `-c search_path=${options.schema}` } : {}),
-  });
+export function openPostgres(url: string, options: { max?: number } = {}): OpenedPostgres {
+  const pool = new pg.Pool({ connectionString: url, max: options.max ?? 10 });
   // An idle client losing its connection (the server restarted) must not end the process.
   pool.on('error', (error) => console.error('PostgreSQL pool:', error.message));
   const db = new Kysely<Database>({ dialect: new BoardwalkPostgresDialect({ pool }) });

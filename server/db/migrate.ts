@@ -27,7 +27,7 @@ export async function migrateToLatest(db: DB): Promise<string[]> {
   // Helpers land migrations with timestamps reserved in advance, so one may arrive after a later-named
   // one has already run on an existing database: run it anyway (each is an independent change).
   // On PostgreSQL the migrator's own tables go in the schema the app works in: left unnamed, it looks
-  // for them in every schema of the database and finds another app's (tests use a schema each).
+  // for them in every schema of the database and could find another schema's.
   const migrationTableSchema =
     db.getExecutor().adapter instanceof PostgresAdapter ? (await sql<{ schema: string }>`select current_schema() as schema`.execute(db)).rows[0]?.schema : undefined;
   const migrator = new Migrator({ db, provider: new MigrationFolderProvider(), allowUnorderedMigrations: true, migrationTableSchema });
