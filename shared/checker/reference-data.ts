@@ -8,6 +8,8 @@
  * introducing Cmin).
  */
 
+import { ELECTRODE_STABILITY_SOURCE, ELECTRODE_STABLE_MAX_OHM } from './earthing-and-bonding.ts';
+
 // ---------------------------------------------------------------------------------------------
 // Conductors
 // ---------------------------------------------------------------------------------------------
@@ -221,8 +223,8 @@ export const RCD_TT_SOURCE = 'BS 7671:2018 411.5.3 and Table 41.5 (Zs ≤ 50 V /
  * 200 Ω the electrode's resistance may not be stable (soil drying out or freezing). A remark, not a
  * fault.
  */
-export const TT_ELECTRODE_STABLE_UP_TO_OHM = 200;
-export const TT_ELECTRODE_STABLE_SOURCE = 'BS 7671:2018 note to Table 41.5: above 200 Ω an electrode may not be stable [from memory]';
+export const TT_ELECTRODE_STABLE_UP_TO_OHM = ELECTRODE_STABLE_MAX_OHM;
+export const TT_ELECTRODE_STABLE_SOURCE = ELECTRODE_STABILITY_SOURCE;
 
 /** Measured Zs (at room temperature) against a tabulated maximum: measured ≤ 0.8 × tabulated. */
 export const ZS_RULE_OF_THUMB_FACTOR = 0.8;

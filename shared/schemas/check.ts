@@ -99,6 +99,8 @@ function toCheckCircuit(c: z.infer<typeof circuitFieldsSchema> & { id: number },
     liveCsaMm2: c.liveCsaMm2,
     cpcCsaMm2: c.cpcCsaMm2,
     maxDisconnectionS: c.maxDisconnectionS,
+    // Optional in the schema (circuits written before it existed), so the type does not ask for it.
+    cableLengthM: c.cableLengthM ?? null,
     deviceStandard: c.deviceStandard,
     deviceType: c.deviceType,
     ratingA: c.ratingA,
