@@ -4,6 +4,7 @@ import type { Job, Site } from '../../shared/schemas/sites.ts';
 import type { DB } from './database.ts';
 import { appendHistory } from './history.ts';
 import { toBoard, toCircuit, toJob, toSite } from './mappers.ts';
+import { servedCircuit } from './served-circuits.ts';
 import type { BoardRow, BoardTable, CellRow } from './types.ts';
 import { userNames } from './users.ts';
 import type { Updateable } from 'kysely';
@@ -37,7 +38,7 @@ export async function loadCircuits(db: DB, boardId: number, onlyIds?: readonly n
     else byCircuit.set(cell.circuit_id, [cell]);
   }
   const names = await userNames(db);
-  return rows.map((row) => toCircuit(row, byCircuit.get(row.id) ?? [], names));
+  return rows.map((row) => servedCircuit(toCircuit(row, byCircuit.get(row.id) ?? [], names)));
 }
 
 export interface BoardWithContext {

@@ -1,4 +1,4 @@
-import type { CircuitFields, CreateCircuitBody } from '../../shared/schemas/boards.ts';
+import { circuitFieldsSchema, type CircuitFields, type CreateCircuitBody } from '../../shared/schemas/boards.ts';
 import type { DB } from './database.ts';
 import { appendHistory } from './history.ts';
 import { circuitFieldColumns, fieldText, toCircuitUpdate } from './mappers.ts';
@@ -13,11 +13,24 @@ export function findCircuitRow(db: DB, boardId: number, circuitId: number): Prom
     .executeTakeFirst();
 }
 
-/** Next free plain number on a board ("13" after "12"; ignores three-phase labels). */
-async function nextCircuitNumber(db: DB, boardId: number): Promise<string> {
-  const rows = await db.selectFrom('circuits').select('number').where('board_id', '=', boardId).execute();
-  const highest = rows.reduce((max, r) => Math.max(max, Number.parseInt(r.number, 10) || 0), 0);
-  return String(highest + 1);
+/** The longest circuit number the schema takes (`circuitFieldsSchema.number`). */
+const numberMaxLength = circuitFieldsSchema.shape.number.maxLength ?? 12;
+
+/**
+ * Next free plain number on a board: one more than the highest number ("13" after "12",
+ * "5" after "4L3") when that fits the circuit-number field, else the
+ * lowest whole number not yet used, which always fits (a board has far fewer than 10¹² circuits).
+ */
+export function nextCircuitNumber(numbers: readonly string[]): string {
+  // Leading digits count ("4L1" is circuit 4's first line), as a tester numbers ways.
+  const plain = numbers.map((n) => /^\d+/.exec(n.trim())?.[0]).filter((d): d is string => d !== undefined).map((d) => BigInt(d));
+  const highest = plain.reduce((max, n) => (n > max ? n : max), 0n);
+  const next = String(highest + 1n);
+  if (next.length <= numberMaxLength) return next;
+  const used = new Set(plain);
+  let candidate = 1n;
+  while (used.has(candidate)) candidate += 1n;
+  return String(candidate);
 }
 
 /** Inserts a circuit after another (or at the end) and renumbers positions 1..n. */
@@ -26,7 +39,9 @@ export async function createCircuit(db: DB, boardId: number, body: CreateCircuit
   const order = (
     await db.selectFrom('circuits').select('id').where('board_id', '=', boardId).orderBy('position').orderBy('id').execute()
   ).map((r) => r.id);
-  const number = fields.number ?? (await nextCircuitNumber(db, boardId));
+  const number =
+    fields.number ??
+    nextCircuitNumber((await db.selectFrom('circuits').select('number').where('board_id', '=', boardId).execute()).map((r) => r.number));
   const inserted = await db
     .insertInto('circuits')
     .values({ board_id: boardId, position: 0, phase: null, points: null, live_csa_mm2: null, cpc_csa_mm2: null,
@@ -91,9 +106,16 @@ export async function updateCircuit(
     });
     if (conflicting.length > 0) return { ok: false, conflictingFields: conflicting };
   }
+  // Values the circuit already holds change nothing: no new version, no history (a retried
+  // request after a lost answer is harmless, and the live feed has nothing to bring).
+  const changedKeys = keys.filter((k) => {
+    const column = circuitFieldColumns[k as keyof CircuitFields];
+    return fieldText(circuit[column]) !== fieldText(changes[k as keyof CircuitFields]);
+  });
+  if (changedKeys.length === 0) return { ok: true, version: circuit.version };
   const version = circuit.version + 1;
   const now = new Date().toISOString();
-  for (const key of keys) {
+  for (const key of changedKeys) {
     const column = circuitFieldColumns[key as keyof CircuitFields];
     const oldText = fieldText(circuit[column]);
     const newText = fieldText(changes[key as keyof CircuitFields]);

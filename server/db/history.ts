@@ -34,12 +34,16 @@ export function historySince(db: DB, boardId: number, after: number) {
     .execute();
 }
 
-export function cellHistory(db: DB, circuitId: number, columnKey: string) {
+/** One cell's changes in order (served by the index history_circuit_column). */
+export function cellHistoryQuery(db: DB, circuitId: number, columnKey: string) {
   return db
     .selectFrom('history')
     .selectAll()
     .where('circuit_id', '=', circuitId)
     .where('column_key', '=', columnKey)
-    .orderBy('id')
-    .execute();
+    .orderBy('id');
+}
+
+export function cellHistory(db: DB, circuitId: number, columnKey: string) {
+  return cellHistoryQuery(db, circuitId, columnKey).execute();
 }

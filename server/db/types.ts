@@ -8,6 +8,11 @@ export interface UserTable {
   role: 'admin' | 'tester' | 'reviewer';
   password_hash: string;
   created_at: Generated<string>;
+  /** Set while the person is deactivated: no sign-in, everything they did keeps their name. */
+  deactivated_at: string | null;
+  deactivated_by: number | null;
+  /** Raised when the password changes or the person is deactivated: older sessions end. */
+  session_generation: Generated<number>;
 }
 
 export interface SiteTable {

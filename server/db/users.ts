@@ -30,23 +30,47 @@ export async function createUser(
     .executeTakeFirstOrThrow();
 }
 
+/**
+ * Changes a person. A new password or a deactivation raises their session generation, which ends
+ * every session made before (the middleware compares it on each request); `byUserId` is who did it.
+ */
 export async function updateUser(
   db: DB,
   id: number,
-  input: { name?: string; role?: Role; password?: string },
+  input: { name?: string; role?: Role; password?: string; active?: boolean },
+  byUserId?: number,
 ): Promise<UserRow | undefined> {
-  const values: Partial<Pick<UserRow, 'name' | 'role' | 'password_hash'>> = {};
+  const existing = await findUserById(db, id);
+  if (!existing) return undefined;
+  const values: Partial<Pick<UserRow, 'name' | 'role' | 'password_hash' | 'deactivated_at' | 'deactivated_by' | 'session_generation'>> = {};
+  let endSessions = false;
   if (input.name !== undefined) values.name = input.name;
   if (input.role !== undefined) values.role = input.role;
-  if (input.password !== undefined) values.password_hash = await bcrypt.hash(input.password, passwordCost);
+  if (input.password !== undefined) {
+    values.password_hash = await bcrypt.hash(input.password, passwordCost);
+    endSessions = true;
+  }
+  if (input.active === false && existing.deactivated_at === null) {
+    values.deactivated_at = new Date().toISOString();
+    values.deactivated_by = byUserId ?? null;
+    endSessions = true;
+  }
+  if (input.active === true && existing.deactivated_at !== null) {
+    values.deactivated_at = null;
+    values.deactivated_by = null;
+  }
+  if (endSessions) values.session_generation = existing.session_generation + 1;
+  if (Object.keys(values).length === 0) return existing;
   return db.updateTable('users').set(values).where('id', '=', id).returningAll().executeTakeFirst();
 }
 
+/** Admins who can still sign in (a deactivated admin cannot run anything). */
 export async function countAdmins(db: DB): Promise<number> {
   const row = await db
     .selectFrom('users')
     .select((eb) => eb.fn.countAll<number>().as('n'))
     .where('role', '=', 'admin')
+    .where('deactivated_at', 'is', null)
     .executeTakeFirstOrThrow();
   return Number(row.n);
 }

@@ -5,6 +5,8 @@ import { HttpError } from '../http-error.ts';
 declare module 'express-session' {
   interface SessionData {
     userId: number;
+    /** The person's session generation at sign-in; a newer one in the database ends this session. */
+    sessionGeneration: number;
   }
 }
 
@@ -24,15 +26,34 @@ export interface SignedInUser {
   role: Role;
 }
 
-export type UserLoader = (id: number) => Promise<SignedInUser | undefined>;
+/** A person as the session check needs them. */
+export interface LoadedUser {
+  user: SignedInUser;
+  sessionGeneration: number;
+  deactivated: boolean;
+}
 
-/** Loads the session's user or answers 401. */
+export type UserLoader = (id: number) => Promise<LoadedUser | undefined>;
+
+/**
+ * Loads the session's user or answers 401. A session made before the person's password changed
+ * or before they were deactivated (an older session generation) is ended here, at once.
+ */
 export function requireUser(loadUser: UserLoader): RequestHandler {
   return async (req, _res, next) => {
     const id = req.session?.userId;
-    const user = id ? await loadUser(id) : undefined;
-    if (!user) throw new HttpError('unauthenticated', 'Sign in first.');
-    req.user = user;
+    const loaded = id ? await loadUser(id) : undefined;
+    if (!loaded) throw new HttpError('unauthenticated', 'Sign in first.');
+    if (loaded.deactivated || loaded.sessionGeneration !== (req.session.sessionGeneration ?? 0)) {
+      await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
+      throw new HttpError(
+        'unauthenticated',
+        loaded.deactivated
+          ? 'Your account has been deactivated, so you were signed out. Ask an admin if this is a mistake.'
+          : 'You were signed out because your password was changed. Sign in with the new password.',
+      );
+    }
+    req.user = loaded.user;
     next();
   };
 }

@@ -8,15 +8,15 @@ import {
   writeCellBodySchema,
 } from '../../shared/schemas/boards.ts';
 import { columnByKey, isDetailKey, isReadingKey } from '../../shared/schemas/columns.ts';
-import { findBoardRow, loadBoard, loadBoardWithContext, loadCircuits, circuitOrder, setBoardLock, updateBoardDetails } from '../db/boards.ts';
+import { BoardStates } from '../board-state.ts';
+import { findBoardRow, loadBoard, loadCircuits, circuitOrder, setBoardLock, updateBoardDetails } from '../db/boards.ts';
 import { writeCell } from '../db/cells.ts';
 import { createCircuit, deleteCircuit, findCircuitRow, reorderCircuits, updateCircuit } from '../db/circuits.ts';
 import type { DB } from '../db/database.ts';
-import { cellHistory, historySince, latestCursor } from '../db/history.ts';
-import { toCell } from '../db/mappers.ts';
+import { cellHistory, latestCursor } from '../db/history.ts';
+import { toCell, toJob } from '../db/mappers.ts';
 import type { BoardRow } from '../db/types.ts';
 import { userNames } from '../db/users.ts';
-import { findingsFor } from '../findings.ts';
 import { HttpError, notFound } from '../http-error.ts';
 import { currentUser, requireRole } from '../middleware/auth.ts';
 import type { Presence } from '../presence.ts';
@@ -41,41 +41,74 @@ function requireOpen(board: BoardRow): void {
 export function boardRoutes(db: DB, presence: Presence): Router {
   const router = Router();
 
-  /** Findings of the whole board (rules compare circuits with each other), filtered to some circuits. */
-  async function boardFindings(boardId: number, circuitId?: number) {
-    const context = await loadBoardWithContext(db, boardId);
-    if (!context) return [];
-    const findings = findingsFor(context);
+  // Boards kept in memory and brought up to date from their history (server/board-state.ts): a
+  // write re-reads and re-checks the circuits that changed, an idle poll reads three small rows.
+  const states = new BoardStates(db);
+
+  /** Findings of the board (rules compare circuits with each other), or of one circuit. */
+  async function boardFindings(boardId: number, circuitId?: number, reloadCircuits?: number[]) {
+    const state = await states.current(boardId, { reloadCircuits });
+    if (!state) return [];
+    const findings = states.findings(state);
     return circuitId === undefined ? findings : findings.filter((f) => f.circuitId === circuitId);
   }
 
   router.get('/:boardId', async (req, res) => {
     const boardId = idParam(req, 'boardId');
-    const cursor = await latestCursor(db, boardId);
-    const context = await loadBoardWithContext(db, boardId);
-    if (!context) throw notFound(`Board ${boardId}`);
+    const state = await states.current(boardId);
+    if (!state) throw notFound(`Board ${boardId}`);
+    // The job is not part of the board's history (its state and reference change elsewhere).
+    const job = await db.selectFrom('jobs').selectAll().where('id', '=', state.job.id).executeTakeFirst();
     presence.touch(boardId, currentUser(req));
-    res.json({ ...context, findings: findingsFor(context), cursor });
+    res.json({
+      board: state.board,
+      site: state.site,
+      job: job ? toJob(job) : state.job,
+      circuits: state.circuits,
+      previousReadings: state.previousReadings,
+      findings: states.findings(state),
+      cursor: state.cursor,
+    });
   });
 
-  /** The live feed: what changed after `after` (a cursor from an earlier answer). */
+  /**
+   * The live feed: what changed after `after` (a cursor from an earlier answer): the circuits
+   * changed, the findings of every circuit whose findings changed and the board-wide ones
+   * (`findingsScope: 'circuits'`), the order and the board. When nothing changed it costs three
+   * one-row reads.
+   */
   router.get('/:boardId/changes', async (req, res) => {
     const boardId = idParam(req, 'boardId');
     const after = Number(req.query.after ?? 0);
     if (!Number.isSafeInteger(after) || after < 0) throw new HttpError('bad_request', 'after must be a cursor from an earlier answer (a whole number).');
     const user = currentUser(req);
     presence.touch(boardId, user);
-    const changes = await historySince(db, boardId, after);
-    const context = await loadBoardWithContext(db, boardId);
-    if (!context) throw notFound(`Board ${boardId}`);
+    const state = await states.current(boardId);
+    if (!state) throw notFound(`Board ${boardId}`);
+    const present = presence.others(boardId, user.id);
+    const order = state.circuits.map((c) => c.id);
+    if (state.cursor <= after) {
+      res.json({ cursor: after, board: state.board, circuits: [], order, findings: [], findingsScope: 'circuits', findingsCircuits: [], present });
+      return;
+    }
+    const changes = await db
+      .selectFrom('history')
+      .select('circuit_id')
+      .where('board_id', '=', boardId)
+      .where('id', '>', after)
+      .where('id', '<=', state.cursor)
+      .execute();
     const changedIds = new Set(changes.map((c) => c.circuit_id).filter((id): id is number => id !== null));
+    const changedFindings = states.findingsSince(state, after, changedIds);
     res.json({
-      cursor: changes.length > 0 ? changes[changes.length - 1]!.id : after,
-      board: context.board,
-      circuits: context.circuits.filter((c) => changedIds.has(c.id)),
-      order: context.circuits.map((c) => c.id),
-      findings: changes.length > 0 ? findingsFor(context) : [],
-      present: presence.others(boardId, user.id),
+      cursor: state.cursor,
+      board: state.board,
+      circuits: state.circuits.filter((c) => changedIds.has(c.id)),
+      order,
+      findings: changedFindings.findings,
+      findingsScope: 'circuits',
+      findingsCircuits: changedFindings.circuits,
+      present,
     });
   });
 
@@ -178,7 +211,8 @@ export function boardRoutes(db: DB, presence: Presence): Router {
       }
     });
     const [circuit] = await loadCircuits(db, boardId, [circuitId]);
-    res.json({ circuit, findings: await boardFindings(boardId, circuitId), cursor: await latestCursor(db, boardId) });
+    // A change that left every value as it was bumps the version without a history row: reload it.
+    res.json({ circuit, findings: await boardFindings(boardId, circuitId, [circuitId]), cursor: await latestCursor(db, boardId) });
   });
 
   router.delete('/:boardId/circuits/:circuitId', async (req, res) => {

@@ -12,6 +12,8 @@ declare module 'better-sqlite3-session-store' {
     get(sid: string, callback: (err: unknown, session?: session.SessionData | null) => void): void;
     set(sid: string, session: session.SessionData, callback?: (err?: unknown) => void): void;
     destroy(sid: string, callback?: (err?: unknown) => void): void;
+    /** Renews a session's stored expiry from `session.cookie.expires`. */
+    touch(sid: string, session: session.SessionData, callback?: (err?: unknown) => void): void;
     /** Starts the expiry sweep (a setInterval that is not unref'd). */
     startInterval(): void;
     clearExpiredSessions(): void;

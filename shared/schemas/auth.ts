@@ -17,6 +17,14 @@ export type User = z.infer<typeof userSchema>;
 
 export const meResponseSchema = z.object({ user: userSchema });
 
+/** A person as the admin's list shows them: also whether they may sign in. */
+export const listedUserSchema = userSchema.extend({
+  /** False while deactivated: no sign-in; their name stays on everything they did. */
+  active: z.boolean(),
+  deactivatedAt: z.string().nullable(),
+});
+export type ListedUser = z.infer<typeof listedUserSchema>;
+
 export const createUserBodySchema = z.object({
   email: z.string().trim().toLowerCase().email('Enter an e-mail address such as name@example.com.'),
   name: z.string().trim().min(1, 'Enter a name.').max(120),
@@ -30,6 +38,17 @@ export const updateUserBodySchema = z
     name: z.string().trim().min(1).max(120).optional(),
     role: roleSchema.optional(),
     password: z.string().min(10, 'A password needs at least 10 characters.').max(200).optional(),
+    /** false deactivates (ends their sessions at once), true reactivates. */
+    active: z.boolean().optional(),
   })
-  .refine((b) => Object.keys(b).length > 0, 'Nothing to change: give a name, role or password.');
+  .refine((b) => Object.keys(b).length > 0, 'Nothing to change: give a name, role, password or whether the account is active.');
 export type UpdateUserBody = z.infer<typeof updateUserBodySchema>;
+
+/** `POST /api/auth/password`: a person changes their own password; their other sessions end. */
+export const changePasswordBodySchema = z
+  .object({
+    currentPassword: z.string().min(1, 'Enter your current password.'),
+    newPassword: z.string().min(10, 'A password needs at least 10 characters.').max(200),
+  })
+  .refine((b) => b.newPassword !== b.currentPassword, { message: 'The new password must differ from the current one.', path: ['newPassword'] });
+export type ChangePasswordBody = z.infer<typeof changePasswordBodySchema>;

@@ -207,7 +207,12 @@ export const boardChangesResponseSchema = z.object({
   circuits: z.array(circuitSchema),
   /** The board's circuit ids in order, so inserts, removals and moves show. */
   order: z.array(z.number().int()),
+  /** The board's findings; with `findingsScope: 'circuits'`, only those of the circuits above and the board-wide ones. */
   findings: z.array(findingSchema),
+  /** 'circuits': `findings` covers only the circuits sent (and board-wide findings); absent or 'board': every finding. */
+  findingsScope: z.enum(['board', 'circuits']).optional(),
+  /** With `findingsScope: 'circuits'`: the circuits whose findings `findings` gives in full (none may remain). */
+  findingsCircuits: z.array(z.number().int()).optional(),
   /** Other people with the board open in the last few seconds. */
   present: z.array(z.object({ id: z.number().int(), name: z.string() })),
 });

@@ -2,7 +2,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import { NavLink, Outlet, useNavigation } from 'react-router-dom';
 import { useMe } from '../features/auth/api/get-me.ts';
 import { useSignOut } from '../features/auth/api/sign-out.ts';
-import { stopBoardSync } from '../features/board-console/sync/use-board-sync.ts';
+import { runSignOutSteps } from '../lib/session-end.ts';
 
 const navLinkClass = ({ isActive }: { isActive: boolean }) =>
   `rounded px-2 py-1 font-medium ${isActive ? 'bg-accent-soft text-accent' : 'text-ink hover:bg-accent-soft'}`;
@@ -23,7 +23,7 @@ export function AppLayout() {
   const navigation = useNavigation();
   // Once signed out, no board engine may send anything more under the ended session; what waits
   // stays stored under the person who typed it, for their next sign-in.
-  const signOutAndStopSync = () => signOut.mutate(undefined, { onSuccess: () => stopBoardSync(queryClient) });
+  const signOutAndStopSync = () => signOut.mutate(undefined, { onSuccess: () => runSignOutSteps(queryClient) });
 
   return (
     <div className="flex h-dvh flex-col">

@@ -1,8 +1,5 @@
 import { Navigate, RouterProvider, createBrowserRouter, type RouteObject } from 'react-router-dom';
-import { CompanyPage } from '../features/admin/components/company-page.tsx';
-import { UsersPage } from '../features/admin/components/users-page.tsx';
 import { SignInPage } from '../features/auth/components/sign-in-page.tsx';
-import { JobsPage } from '../features/jobs/components/jobs-page.tsx';
 import { AdminLayout } from './admin-layout.tsx';
 import { AppLayout } from './app-layout.tsx';
 import { FullPageMessage } from './full-page-message.tsx';
@@ -13,9 +10,10 @@ import { RouteErrorPage } from './route-error-page.tsx';
 
 /**
  * Every route of the app. Signed-out people reach only /sign-in; the rest sits behind RequireAuth
- * inside the app layout. The board console (the largest part of the client: grid, palette,
- * checker) is loaded when a board is first opened, and the job screen when a job is first opened,
- * so sign-in and the jobs list start quickly.
+ * inside the app layout. Each page behind sign-in is its own chunk, loaded when first opened: the
+ * sign-in page loads only itself and the frame, the jobs list does not load the board console (the
+ * largest part of the client: grid, palette, checker, sync engine) nor the job screen, and only
+ * admins load the admin pages.
  */
 export const appRoutes: RouteObject[] = [
   {
@@ -35,7 +33,13 @@ export const appRoutes: RouteObject[] = [
         ),
         children: [
           { index: true, element: <Navigate to="/jobs" replace /> },
-          { path: 'jobs', element: <JobsPage /> },
+          {
+            path: 'jobs',
+            lazy: async () => {
+              const { JobsPage } = await import('../features/jobs/components/jobs-page.tsx');
+              return { Component: JobsPage };
+            },
+          },
           {
             path: 'boards/:boardId',
             lazy: async () => {
@@ -73,8 +77,20 @@ export const appRoutes: RouteObject[] = [
             ),
             children: [
               { index: true, element: <Navigate to="/admin/users" replace /> },
-              { path: 'users', element: <UsersPage /> },
-              { path: 'company', element: <CompanyPage /> },
+              {
+                path: 'users',
+                lazy: async () => {
+                  const { UsersPage } = await import('../features/admin/components/users-page.tsx');
+                  return { Component: UsersPage };
+                },
+              },
+              {
+                path: 'company',
+                lazy: async () => {
+                  const { CompanyPage } = await import('../features/admin/components/company-page.tsx');
+                  return { Component: CompanyPage };
+                },
+              },
               {
                 path: 'mailbox',
                 lazy: async () => {

@@ -29,9 +29,18 @@ export class NetworkError extends Error {
 
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 
+/** Headers of a request: every change says it is JSON (the server refuses any other type). */
+function headersFor(method: Method, body: unknown): Record<string, string> {
+  if (method === 'GET') return { accept: 'application/json' };
+  // A FormData upload gets its multipart type (with its boundary) from the browser.
+  if (body instanceof FormData) return { accept: 'application/json' };
+  return { 'content-type': 'application/json', accept: 'application/json' };
+}
+
 /**
  * Calls the JSON API and parses the answer with its zod schema. Throws ApiError for an error
- * answer and NetworkError when no answer came.
+ * answer and NetworkError when no answer came. A change without a body sends `{}` as JSON: the
+ * server takes only JSON (or an upload's FormData) on anything but GET.
  */
 export async function apiRequest<T extends z.ZodType>(
   method: Method,
@@ -45,8 +54,8 @@ export async function apiRequest<T extends z.ZodType>(
     response = await fetch(url, {
       method,
       credentials: 'same-origin',
-      headers: body === undefined ? { accept: 'application/json' } : { 'content-type': 'application/json', accept: 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
+      headers: headersFor(method, body),
+      body: method === 'GET' ? undefined : body instanceof FormData ? body : JSON.stringify(body ?? {}),
       signal: init.signal,
     });
   } catch (error) {

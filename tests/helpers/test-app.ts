@@ -4,6 +4,7 @@ import os from 'node:os';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import bcrypt from 'bcryptjs';
+import express, { type Express } from 'express';
 import request from 'supertest';
 import { createApp } from '../../server/app.ts';
 import { openDatabase, type DB } from '../../server/db/database.ts';
@@ -14,7 +15,14 @@ export const password = 'correct horse battery';
 
 export interface TestApp {
   db: DB;
-  app: ReturnType<typeof createApp>;
+  /**
+   * The app as its own pages call it: a change that names no origin gets the app's own origin, and
+   * a bodiless change gets `Content-Type: application/json` (as src/lib/api-client.ts sends).
+   * Tests of those checks use `rawApp`.
+   */
+  app: Express;
+  /** The app exactly as `createApp` made it. */
+  rawApp: Express;
   ids: { admin: number; tester: number; tester2: number; reviewer: number; site: number; job: number; board: number };
   /** The app's data folder (stored files, the mailbox): a fresh temporary folder, removed by `close()`. */
   dataDir: string;
@@ -54,7 +62,7 @@ export async function createTestApp(options: { presence?: Presence; smtpUrl?: st
   await db.insertInto('circuits').values([circuit(1, '1', 'Sockets', 'ring'), circuit(2, '2', 'Lights', 'radial'), circuit(3, '3', 'Lights upstairs', 'radial')]).execute();
 
   const dataDir = options.dataDir ?? fs.mkdtempSync(path.join(os.tmpdir(), 'boardwalk-test-'));
-  const app = createApp({
+  const rawApp = createApp({
     db,
     sqlite,
     sessionSecret: 'test-secret',
@@ -63,10 +71,12 @@ export async function createTestApp(options: { presence?: Presence; smtpUrl?: st
     dataDir,
     smtpUrl: options.smtpUrl,
   });
+  const app = asOwnPage(rawApp);
   const emails = { admin: 'admin@test.example', tester: 'tester@test.example', tester2: 'tester2@test.example', reviewer: 'reviewer@test.example' };
   return {
     db,
     app,
+    rawApp,
     ids: { admin, tester, tester2, reviewer, site, job, board },
     dataDir,
     async signIn(role) {
@@ -80,6 +90,24 @@ export async function createTestApp(options: { presence?: Presence; smtpUrl?: st
       if (!options.dataDir) fs.rmSync(dataDir, { recursive: true, force: true });
     },
   };
+}
+
+/** Wraps an app so requests look like those of its own pages (see `TestApp.app`). */
+export function asOwnPage(inner: Express): Express {
+  const outer = express();
+  outer.use((req, _res, next) => {
+    if (!['GET', 'HEAD', 'OPTIONS'].includes(req.method)) {
+      const h = req.headers;
+      if (h.origin === undefined && h.referer === undefined && h.host) h.origin = `http://${h.host}`;
+      const bodiless = (h['content-length'] === undefined || h['content-length'] === '0') && h['transfer-encoding'] === undefined;
+      if (bodiless && h['content-type'] === undefined) h['content-type'] = 'application/json';
+    }
+    next();
+  });
+  outer.use(inner);
+  // What createApp left for the process (appServices: file store, mail sender) stays reachable.
+  Object.assign(outer.locals, inner.locals);
+  return outer;
 }
 
 /** Starts an app on an ephemeral port (for browser tests). */

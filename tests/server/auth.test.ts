@@ -94,7 +94,8 @@ describe('sign-in rate limit', () => {
     const { migrateToLatest } = await import('../../server/db/migrate.ts');
     const { db, sqlite } = openDatabase(':memory:');
     await migrateToLatest(db);
-    const app = createApp({ db, sqlite, sessionSecret: 's', signInAttemptsPerMinute: 2 });
+    const { asOwnPage } = await import('../helpers/test-app.ts');
+    const app = asOwnPage(createApp({ db, sqlite, sessionSecret: 's', signInAttemptsPerMinute: 2 }));
     const attempt = () => request(app).post('/api/auth/sign-in').send({ email: 'a@b.example', password: 'x' });
     expect((await attempt()).status).toBe(401);
     expect((await attempt()).status).toBe(401);

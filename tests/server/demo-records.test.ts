@@ -9,6 +9,7 @@ import { inspectionItemIds } from '../../shared/schemas/inspection-items.ts';
 import { jobDetailResponseSchema, type JobDetail } from '../../shared/schemas/jobs.ts';
 import { overallAssessment, sectionsFor, usualIntervalMonths, type JobSectionData, type Observation } from '../../shared/schemas/job-record.ts';
 import { siteListResponseSchema } from '../../shared/schemas/sites.ts';
+import { asOwnPage } from '../helpers/test-app.ts';
 
 let db: DB;
 let close: () => void;
@@ -22,7 +23,7 @@ beforeAll(async () => {
   close = () => opened.sqlite.close();
   await migrateToLatest(db);
   await seedDemo(db);
-  const app = createApp({ db, sqlite: opened.sqlite, sessionSecret: 'demo-records-test', signInAttemptsPerMinute: 1000 });
+  const app = asOwnPage(createApp({ db, sqlite: opened.sqlite, sessionSecret: 'demo-records-test', signInAttemptsPerMinute: 1000 }));
   agent = request.agent(app);
   expect((await agent.post('/api/auth/sign-in').send({ email: 'tester@boardwalk.test', password: demoPassword })).status).toBe(200);
   const jobs = await db.selectFrom('jobs').select(['id', 'kind']).execute();

@@ -1,11 +1,11 @@
 import { screen, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import type { User } from '../../../shared/schemas/auth.ts';
+import type { ListedUser as User } from '../../../shared/schemas/auth.ts';
 import { UsersPage } from '../../../src/features/admin/components/users-page.tsx';
 import { json, renderWithProviders, stubApi, type ApiCall } from '../../helpers/render.tsx';
 
-const ada: User = { id: 1, email: 'ada@example.test', name: 'Ada Admin', role: 'admin' };
-const tess: User = { id: 2, email: 'tess@example.test', name: 'Tess Tester', role: 'tester' };
+const ada: User = { id: 1, email: 'ada@example.test', name: 'Ada Admin', role: 'admin', active: true, deactivatedAt: null };
+const tess: User = { id: 2, email: 'tess@example.test', name: 'Tess Tester', role: 'tester', active: true, deactivatedAt: null };
 
 /** A fake users API over an in-memory list; `createAnswer` overrides the POST's answer. */
 function stubUsersApi(createAnswer?: (call: ApiCall) => Response) {
@@ -15,13 +15,14 @@ function stubUsersApi(createAnswer?: (call: ApiCall) => Response) {
     'POST /api/users': (call) => {
       if (createAnswer) return createAnswer(call);
       const body = call.body as Omit<User, 'id'> & { password: string };
-      const user: User = { id: people.length + 1, email: body.email, name: body.name, role: body.role };
+      const user: User = { id: people.length + 1, email: body.email, name: body.name, role: body.role, active: true, deactivatedAt: null };
       people.push(user);
       return json(201, { user });
     },
     'PATCH /api/users/2': (call) => {
       const changes = call.body as Partial<User>;
       people[1] = { ...people[1]!, ...changes };
+      if (changes.active !== undefined) people[1].deactivatedAt = changes.active ? null : '2026-12-02T08:00:00.000Z';
       return json(200, { user: people[1] });
     },
     'PATCH /api/users/1': () =>
@@ -34,6 +35,34 @@ afterEach(() => {
 });
 
 describe('users page', () => {
+  it('when an admin deactivates a person from the keyboard, then it asks once, sends active: false and offers to reactivate', async () => {
+    const calls = stubUsersApi();
+    const { user } = renderWithProviders(<UsersPage />);
+    const row = (await screen.findByRole('rowheader', { name: 'Tess Tester' })).closest('tr')!;
+    within(row).getByRole('button', { name: 'Deactivate…' }).focus();
+    await user.keyboard('{Enter}');
+    const confirm = within(row).getByRole('button', { name: 'Deactivate Tess Tester' });
+    expect(confirm).toHaveFocus();
+    expect(calls.filter((c) => c.method === 'PATCH')).toHaveLength(0);
+    await user.keyboard('{Enter}');
+    expect(await within(row).findByText('Tess Tester is signed out and cannot sign in.')).toBeInTheDocument();
+    expect(calls.find((c) => c.method === 'PATCH')?.body).toEqual({ active: false });
+    expect(within(row).getByText('Deactivated')).toBeInTheDocument();
+    await user.click(within(row).getByRole('button', { name: 'Reactivate' }));
+    expect(await within(row).findByText('Tess Tester can sign in again.')).toBeInTheDocument();
+    expect(calls.filter((c) => c.method === 'PATCH').map((c) => c.body)).toEqual([{ active: false }, { active: true }]);
+  });
+
+  it('when the admin keeps the person active, then nothing is sent', async () => {
+    const calls = stubUsersApi();
+    const { user } = renderWithProviders(<UsersPage />);
+    const row = (await screen.findByRole('rowheader', { name: 'Tess Tester' })).closest('tr')!;
+    await user.click(within(row).getByRole('button', { name: 'Deactivate…' }));
+    await user.click(within(row).getByRole('button', { name: 'Keep active' }));
+    expect(within(row).getByRole('button', { name: 'Deactivate…' })).toBeInTheDocument();
+    expect(calls.filter((c) => c.method === 'PATCH')).toHaveLength(0);
+  });
+
   it('when an admin fills in the form and presses Enter, then the person is created and listed', async () => {
     const calls = stubUsersApi();
     const { user } = renderWithProviders(<UsersPage />);

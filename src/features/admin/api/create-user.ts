@@ -1,12 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { userSchema, type CreateUserBody, type User } from '../../../../shared/schemas/auth.ts';
+import { listedUserSchema, type CreateUserBody, type ListedUser } from '../../../../shared/schemas/auth.ts';
 import { apiRequest } from '../../../lib/api-client.ts';
 import { usersKeys } from './users-keys.ts';
 
-const createUserResponseSchema = z.object({ user: userSchema });
+const createUserResponseSchema = z.object({ user: listedUserSchema });
 
-export async function createUser(body: CreateUserBody): Promise<User> {
+export async function createUser(body: CreateUserBody): Promise<ListedUser> {
   return (await apiRequest('POST', '/api/users', createUserResponseSchema, body)).user;
 }
 
@@ -16,7 +16,7 @@ export function useCreateUser() {
   return useMutation({
     mutationFn: createUser,
     onSuccess: (user) => {
-      queryClient.setQueryData(usersKeys.list(), (users: User[] | undefined) => (users ? [...users, user] : users));
+      queryClient.setQueryData(usersKeys.list(), (users: ListedUser[] | undefined) => (users ? [...users, user] : users));
       return queryClient.invalidateQueries({ queryKey: usersKeys.lists() });
     },
   });

@@ -1,12 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { userSchema, type UpdateUserBody, type User } from '../../../../shared/schemas/auth.ts';
+import { listedUserSchema, type UpdateUserBody, type ListedUser } from '../../../../shared/schemas/auth.ts';
 import { apiRequest } from '../../../lib/api-client.ts';
 import { usersKeys } from './users-keys.ts';
 
-const updateUserResponseSchema = z.object({ user: userSchema });
+const updateUserResponseSchema = z.object({ user: listedUserSchema });
 
-export async function updateUser({ id, changes }: { id: number; changes: UpdateUserBody }): Promise<User> {
+export async function updateUser({ id, changes }: { id: number; changes: UpdateUserBody }): Promise<ListedUser> {
   return (await apiRequest('PATCH', `/api/users/${id}`, updateUserResponseSchema, changes)).user;
 }
 
@@ -16,7 +16,7 @@ export function useUpdateUser() {
   return useMutation({
     mutationFn: updateUser,
     onSuccess: (user) => {
-      queryClient.setQueryData(usersKeys.list(), (users: User[] | undefined) => users?.map((u) => (u.id === user.id ? user : u)));
+      queryClient.setQueryData(usersKeys.list(), (users: ListedUser[] | undefined) => users?.map((u) => (u.id === user.id ? user : u)));
       return queryClient.invalidateQueries({ queryKey: usersKeys.lists() });
     },
   });

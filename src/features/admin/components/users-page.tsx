@@ -1,4 +1,5 @@
 import { useUsers } from '../api/get-users.ts';
+import { AccountSwitch } from './account-switch.tsx';
 import { CreateUserForm } from './create-user-form.tsx';
 import { RoleChanger } from './role-changer.tsx';
 
@@ -23,12 +24,13 @@ export function UsersPage() {
         )}
         {users.isSuccess && (
           <table className="w-full border-collapse rounded border border-line bg-surface">
-            <caption className="sr-only">People with an account and their roles</caption>
+            <caption className="sr-only">People with an account, their roles and whether they can sign in</caption>
             <thead>
               <tr className="text-left text-xs text-muted">
                 <th scope="col" className="px-3 py-1.5 font-medium">Name</th>
                 <th scope="col" className="px-3 py-1.5 font-medium">E-mail</th>
                 <th scope="col" className="px-3 py-1.5 font-medium">Role</th>
+                <th scope="col" className="px-3 py-1.5 font-medium">Sign-in</th>
               </tr>
             </thead>
             <tbody>
@@ -40,6 +42,9 @@ export function UsersPage() {
                   <td className="px-3 py-1 break-all">{user.email}</td>
                   <td className="px-3 py-1">
                     <RoleChanger user={user} />
+                  </td>
+                  <td className="px-3 py-1">
+                    <AccountSwitch user={user} />
                   </td>
                 </tr>
               ))}

@@ -6,6 +6,7 @@ import type { BoardDetail, Circuit } from '../../../../shared/schemas/boards.ts'
 import { boardToCheckInput, type CheckCircuit } from '../../../../shared/schemas/check.ts';
 import type { Finding } from '../../../../shared/schemas/findings.ts';
 import { createBoardChecker } from '../../../../shared/checker/index.ts';
+import { storedValueFindingCode } from '../../../../shared/schemas/fit-circuit.ts';
 import { ApiError, apiGet } from '../../../lib/api-client.ts';
 import { useLockReasons } from '../api/board-gate.ts';
 import { useBoardSync } from '../sync/use-board-sync.ts';
@@ -54,7 +55,10 @@ function useFindings(detail: BoardDetail | undefined): Finding[] {
       return input;
     });
     const { board, site } = boardToCheckInput({ board: detail.board, site: detail.site, circuits: [] });
-    return checker({ board, site, circuits });
+    const checked = checker({ board, site, circuits });
+    // A stored value the server had to fit to its field is known only to the server: keep its finding.
+    const unfit = detail.findings.filter((f) => f.code === storedValueFindingCode);
+    return unfit.length > 0 ? [...unfit, ...checked] : checked;
   }, [checker, detail, previousById, inputs]);
 }
 

@@ -120,6 +120,22 @@ export function replaceCircuitFindings(findings: readonly Finding[], circuitId: 
   return [...findings.filter((f) => f.circuitId !== circuitId), ...fresh];
 }
 
+/**
+ * The feed's findings when it sends only those that changed (`findingsScope: 'circuits'`): those of
+ * the circuits it brings, of any circuit whose findings changed, and the board-wide ones;
+ * `findingsCircuits` names the circuits covered (a circuit may have none left). They replace what
+ * was known of those circuits and of the board; findings of removed circuits go.
+ */
+export function mergeScopedFindings(
+  findings: readonly Finding[],
+  changes: Pick<BoardChanges, 'circuits' | 'order' | 'findings' | 'findingsCircuits'>,
+): Finding[] {
+  const sent = new Set(changes.findingsCircuits ?? changes.circuits.map((c) => c.id));
+  for (const f of changes.findings) if (f.circuitId !== null) sent.add(f.circuitId);
+  const onBoard = new Set(changes.order);
+  return [...findings.filter((f) => f.circuitId !== null && !sent.has(f.circuitId) && onBoard.has(f.circuitId)), ...changes.findings];
+}
+
 export interface MergeChangesOptions {
   /** The cursor the changes were asked after. */
   after: number;
@@ -155,7 +171,11 @@ export function mergeChanges(cached: BoardDetail, changes: BoardChanges, options
 
   const somethingChanged = changes.cursor > options.after;
   const board = mergeBoard(cached.board, changes.board);
-  const findings = somethingChanged ? changes.findings : cached.findings;
+  const findings = !somethingChanged
+    ? cached.findings
+    : changes.findingsScope === 'circuits'
+      ? mergeScopedFindings(cached.findings, changes)
+      : changes.findings;
   const cursor = Math.max(cached.cursor, changes.cursor);
   if (circuits === cached.circuits && board === cached.board && findings === cached.findings && cursor === cached.cursor) {
     return { detail: cached, missing };

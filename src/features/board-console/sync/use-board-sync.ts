@@ -2,6 +2,7 @@ import { useQuery, useQueryClient, type QueryClient } from '@tanstack/react-quer
 import { useEffect, useMemo, useSyncExternalStore } from 'react';
 import type { CircuitFields } from '../../../../shared/schemas/boards.ts';
 import type { ReadingKey } from '../../../../shared/schemas/columns.ts';
+import { onSignOut } from '../../../lib/session-end.ts';
 import { boardDetailQueryOptions } from '../api/get-board.ts';
 import { BoardSyncEngine } from './board-sync-engine.ts';
 import { cellTarget, fieldTarget, pendingMarks } from './targets.ts';
@@ -69,6 +70,9 @@ export function stopBoardSync(queryClient: QueryClient): void {
   registry.delete(queryClient);
   for (const { engine } of boards.values()) engine.stop();
 }
+
+// Registered when the console's code loads: sign-out (in the app layout) stops every engine.
+onSignOut(stopBoardSync);
 
 /**
  * The board console's connection to the server for one board (see `BoardSync` in types.ts).
