@@ -26,6 +26,8 @@ import { jobRoutes } from './routes/jobs.ts';
 import { mailboxRoutes, mailRoutes } from './routes/mail.ts';
 import { reviewRoutes } from './routes/review.ts';
 import { signatureRoutes } from './routes/signatures.ts';
+import { importRoutes } from './routes/imports.ts';
+import { photoRoutes } from './routes/photos.ts';
 import { siteRoutes } from './routes/sites.ts';
 import { userRoutes } from './routes/users.ts';
 
@@ -82,11 +84,6 @@ export interface AppOptions {
   signInAttemptsPerMinute?: number;
   /** Presence window; tests shorten it. */
   presence?: Presence;
-  /**
-   * Origins allowed to send changes besides the app's own (a reverse proxy's public address).
-   * Defaults to BOARDWALK_ALLOWED_ORIGINS (comma-separated).
-   */
-  allowedOrigins?: readonly string[];
   /** Folder for stored files (`files/…`) and the local mailbox (`mailbox/`); default `data/`. */
   dataDir?: string;
   /**
@@ -98,6 +95,11 @@ export interface AppOptions {
   mailFrom?: string;
   /** The local mail server's port when it is the one receiving mail (shown on the mailbox page). */
   localMailPort?: number | null;
+  /**
+   * Origins allowed to send changes besides the app's own (a reverse proxy's public address).
+   * Defaults to BOARDWALK_ALLOWED_ORIGINS (comma-separated).
+   */
+  allowedOrigins?: readonly string[];
 }
 
 /** What createApp made that the process around it may need (index.ts resumes the mail sender). */
@@ -169,6 +171,8 @@ export function createApp(options: AppOptions): Express {
   api.use('/admin/mailbox', mailboxRoutes(path.join(dataDir, 'mailbox'), options.localMailPort ?? null));
   api.use('/', issueRoutes(db, { dataDir }));
   api.use('/', exportRoutes(db));
+  api.use('/', importRoutes(db));
+  api.use('/', photoRoutes(db, files));
   api.use(apiNotFound);
   app.use('/api', api);
 

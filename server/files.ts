@@ -25,6 +25,7 @@ export interface NewFile {
 const extensionByMime: Record<string, string> = {
   'image/png': 'png',
   'image/jpeg': 'jpg',
+  'image/heic': 'heic',
   'application/pdf': 'pdf',
 };
 
@@ -130,12 +131,18 @@ const describeSize = (bytes: number) => (bytes >= 1024 * 1024 ? `${bytes / (1024
  * checked file is left on `res.locals.upload` (an `UploadedFile`), the form's text fields on
  * `req.body`.
  */
-export function singleUpload(options: { field: string; maxBytes: number; types: Record<string, string>; what: string }): RequestHandler[] {
+export function singleUpload(options: {
+  field: string;
+  maxBytes: number;
+  /** Accepted types by content; null for a text file, which has no magic bytes (the route reads it). */
+  types: Record<string, string> | null;
+  what: string;
+}): RequestHandler[] {
   const parse = multer({
     storage: multer.memoryStorage(),
     limits: { fileSize: options.maxBytes, files: 1, fields: 20, fieldSize: 10_000, parts: 25 },
   }).single(options.field);
-  const accepted = Object.values(options.types).join(' or ');
+  const accepted = options.types ? Object.values(options.types).join(' or ') : 'a text file';
 
   const receive: RequestHandler = (req, res, next) => {
     if (!req.is('multipart/form-data')) {
@@ -161,6 +168,10 @@ export function singleUpload(options: { field: string; maxBytes: number; types: 
   const check: RequestHandler = async (req, res, next) => {
     const file = req.file;
     if (!file || file.size === 0) throw new HttpError('bad_request', `Attach ${options.what} (${accepted}) in the field "${options.field}".`);
+    if (options.types === null) {
+      res.locals.upload = { bytes: file.buffer, mime: 'text/plain', originalName: file.originalname } satisfies UploadedFile;
+      return next();
+    }
     const detected = await fileTypeFromBuffer(file.buffer);
     if (!detected || !(detected.mime in options.types)) {
       const found = detected ? `it is ${detected.mime}` : 'its content is not a recognised file type';

@@ -230,6 +230,18 @@ export interface AppSettingTable {
   value: string;
 }
 
+/** A saved mapping of an instrument file's columns (migration 2026-12-02T0240-import-mappings). */
+export interface ImportMappingTable {
+  id: Generated<number>;
+  name: string;
+  /** null: shared with the whole company. */
+  owner_id: number | null;
+  /** JSON list of { header, target }. */
+  columns: string;
+  created_by: number | null;
+  updated_at: Generated<string>;
+}
+
 export interface Database {
   users: UserTable;
   sites: SiteTable;
@@ -243,6 +255,7 @@ export interface Database {
   history: HistoryTable;
   app_settings: AppSettingTable;
   files: FileTable;
+  import_mappings: ImportMappingTable;
   finding_acceptances: FindingAcceptanceTable;
   signatures: SignatureTable;
   job_issues: JobIssueTable;
@@ -263,6 +276,7 @@ export type CircuitUpdate = Updateable<CircuitTable>;
 export type CellRow = Selectable<CellTable>;
 export type HistoryRow = Selectable<HistoryTable>;
 export type FileRow = Selectable<FileTable>;
+export type ImportMappingRow = Selectable<ImportMappingTable>;
 export type FindingAcceptanceRow = Selectable<FindingAcceptanceTable>;
 export type SignatureRow = Selectable<SignatureTable>;
 export type JobIssueRow = Selectable<JobIssueTable>;

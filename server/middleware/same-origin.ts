@@ -16,6 +16,9 @@ export interface UploadRoute {
 export const uploadRoutes: UploadRoute[] = [
   { method: 'POST', path: /^\/api\/company\/logo$/ },
   { method: 'POST', path: /^\/api\/jobs\/\d+\/signatures$/ },
+  // A readings file read for an import (nothing stored) and a photo of the paper notes (stored).
+  { method: 'POST', path: /^\/api\/boards\/\d+\/import\/read$/ },
+  { method: 'POST', path: /^\/api\/boards\/\d+\/photos$/ },
 ];
 
 export interface SameOriginOptions {

@@ -23,7 +23,8 @@ import type { Presence } from '../presence.ts';
 import { requireBoardLockable, requireJobWritable } from '../review/guards.ts';
 import { idParam } from './params.ts';
 
-async function requireBoard(db: DB, boardId: number): Promise<BoardRow> {
+/** The board, loaded for a write: 404 when absent, 423 when its job is approved or issued. */
+export async function requireBoard(db: DB, boardId: number): Promise<BoardRow> {
   const board = await findBoardRow(db, boardId);
   if (!board) throw notFound(`Board ${boardId}`);
   // Every write loads its board through here: an approved or issued job refuses them all (423).
@@ -32,7 +33,7 @@ async function requireBoard(db: DB, boardId: number): Promise<BoardRow> {
 }
 
 /** Any write to a locked board is refused with 423 and changes nothing. */
-function requireOpen(board: BoardRow): void {
+export function requireOpen(board: BoardRow): void {
   if (board.state === 'locked') {
     throw new HttpError('locked', `Board ${board.reference} is locked; a reviewer must unlock it before anything changes.`);
   }

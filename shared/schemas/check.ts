@@ -113,7 +113,6 @@ function toCheckCircuit(c: z.infer<typeof circuitFieldsSchema> & { id: number },
     spurOriginPoint: c.spurOriginPoint,
     spurLengthM: c.spurLengthM,
     maxZsByHandOhm: c.maxZsByHandOhm,
-    cableLengthM: c.cableLengthM,
     cells,
     previous,
   };

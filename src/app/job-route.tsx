@@ -21,7 +21,7 @@ export function JobRoute() {
   return <JobRecordPage actions={jobActions} panels={<JobPanels />} />;
 }
 
-/** The job's state and gate, signing and sending to the client, beside the record. */
+/** The job's state and gate, signing, issuing and sending to the client, beside the record. */
 function JobPanels() {
   const jobId = Number(useParams().jobId);
   const { data: me } = useMe();

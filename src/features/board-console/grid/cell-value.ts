@@ -4,8 +4,7 @@
  * text is converted and checked before it is written: bad text is refused at the cell and not saved.
  */
 import { circuitFieldsSchema, type Circuit, type CircuitFields } from '../../../../shared/schemas/boards.ts';
-import { parseCell } from '../../../../shared/checker/index.ts';
-import { columnByKey, isReadingKey, type ColumnDef, type ColumnKey, type DetailKey, type ReadingKey } from '../../../../shared/schemas/columns.ts';
+import { columnByKey, isReadingKey, type ColumnDef, type ColumnKey, type DetailKey } from '../../../../shared/schemas/columns.ts';
 
 /** The text a cell shows for a circuit. */
 export function cellText(circuit: Circuit, column: ColumnKey): string {
@@ -19,31 +18,7 @@ export function fieldText(value: CircuitFields[keyof CircuitFields]): string {
   return String(value);
 }
 
-/**
- * A reading as it is stored: trimmed, and written the way a schedule writes it when what was typed
- * is one of the trade's short forms — a bare leading point gets its zero (".44" → "0.44"), a tick or
- * cross typed from the keyboard becomes the symbol in a pass/fail column ("v", "ok" → "✓"; "x" →
- * "✗"), and "na", "lim" become "N/A", "LIM". Anything else is kept exactly as typed (a slip stays
- * visible for the checker to flag).
- */
-export function normaliseReading(column: ReadingKey, text: string): string {
-  const trimmed = text.trim();
-  if (/^\.\d/.test(trimmed)) return `0${trimmed}`;
-  if (/^>\.\d/.test(trimmed)) return `>0${trimmed.slice(1)}`;
-  const parsed = parseCell(column, trimmed);
-  switch (parsed.kind) {
-    case 'na':
-      return 'N/A';
-    case 'lim':
-      return 'LIM';
-    case 'pass':
-      return columnByKey[column].valueKind === 'pass-fail' ? '✓' : trimmed;
-    case 'fail':
-      return columnByKey[column].valueKind === 'pass-fail' ? '✗' : trimmed;
-    default:
-      return trimmed;
-  }
-}
+export { normaliseReading } from '../../../../shared/readings/normalise-reading.ts';
 
 export type DetailParse<K extends DetailKey = DetailKey> =
   | { ok: true; field: K; value: CircuitFields[K] }
