@@ -5,10 +5,11 @@
  * controller, so it is saved by the sync engine and can be undone like a typed one.
  */
 import type { BoardDetail, Circuit, CircuitFields } from '../../../shared/schemas/boards.ts';
-import { columnGroups, columns, isReadingKey, type ColumnKey } from '../../../shared/schemas/columns.ts';
+import { columnByKey, columnGroups, columns, isReadingKey, type ColumnKey } from '../../../shared/schemas/columns.ts';
 import type { Role } from '../../../shared/schemas/common.ts';
 import type { Command } from '../../lib/commands/types.ts';
 import { fieldText } from './grid/cell-value.ts';
+import { jumpColumn } from './grid/enter-stops.ts';
 import { positionAt, type GridPosition } from './grid/grid-state.ts';
 import type { CellChange } from './grid/undo-stack.ts';
 import type { GridController } from './components/use-grid-controller.ts';
@@ -522,7 +523,12 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
           ctx.grid.focusGrid();
           return;
         }
-        ctx.grid.moveTo({ circuitId: circuit.id, column: ctx.grid.active?.column ?? 'description' });
+        const from = ctx.grid.active?.column;
+        const landing = jumpColumn(circuit, from, ctx.grid.shape.columns);
+        ctx.grid.moveTo({ circuitId: circuit.id, column: landing.column });
+        if (!landing.kept && from) {
+          ctx.grid.say(`Circuit ${circuit.number}: ${columnByKey[from].label} is not a reading it needs, so the cursor is on ${columnByKey[landing.column].label}.`);
+        }
         ctx.grid.focusGrid();
       },
     },

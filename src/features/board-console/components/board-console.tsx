@@ -113,9 +113,15 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
   }, [sync.conflicts]);
 
   // Rebuilt only when circuits are added, removed, reordered or renumbered, not on each value typed.
-  const numbersKey = detail.circuits.map((c) => `${c.id}\t${c.number}`).join('\n');
+  const numbersKey = detail.circuits.map((c) => `${c.id}\t${c.number}\t${c.kind}`).join('\n');
   const quickEntryCircuits: QuickEntryCircuit[] = useMemo(
-    () => (numbersKey === '' ? [] : numbersKey.split('\n').map((line) => ({ id: Number(line.split('\t')[0]), number: line.split('\t')[1] ?? '' }))),
+    () =>
+      numbersKey === ''
+        ? []
+        : numbersKey.split('\n').map((line) => {
+            const [id, number = '', kind] = line.split('\t');
+            return { id: Number(id), number, kind: kind as QuickEntryCircuit['kind'] };
+          }),
     [numbersKey],
   );
   const circuitNumbers = useMemo(() => new Map(quickEntryCircuits.map((c) => [c.id, c.number])), [quickEntryCircuits]);
@@ -228,11 +234,15 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
         return { ...position, before: g.read(position), after: e.text };
       });
       const result = g.applyChanges(changes, 'dictated', 'dictated entry');
+      // The cursor goes to the last cell written, and the grid scrolls to show it: the typist sees
+      // where the values landed (and a bare value on the next line goes to that column).
       const last = entries[entries.length - 1];
-      if (last) g.moveTo({ circuitId: last.circuitId, column: g.active?.column ?? last.column });
+      if (last) g.moveTo({ circuitId: last.circuitId, column: last.column });
       const first = result.refused[0];
-      setQuickEntryNote(first ? `Not saved — ${first.message}` : undefined);
+      const stripped = result.stripped[0];
+      setQuickEntryNote(first ? `Not saved — ${first.message}` : stripped ? `Saved — ${stripped.message}.` : undefined);
       if (first) g.say(`Not saved — ${first.message}`, 'error');
+      else if (stripped) g.say(`Saved — ${stripped.message}.`);
     },
     [],
   );

@@ -259,7 +259,7 @@ describe('commands from the palette', () => {
 });
 
 describe('the quick-entry line in the console', () => {
-  it('when a line is dictated, then its values are written as dictated, the cursor follows to the last circuit, and the undo key takes them back', async () => {
+  it('when a line is dictated, then its values are written as dictated, the cursor goes to the last cell written, and the undo key takes them back', async () => {
     const { grid, user, calls } = renderConsole(board());
     await user.click(cellOf(grid, '1', 'Zs'));
     await user.keyboard('{Control>}j{/Control}');
@@ -271,7 +271,7 @@ describe('the quick-entry line in the console', () => {
       { kind: 'cell', circuitId: 13, column: 'zs', text: '0.62', reason: null, how: 'dictated' },
       { kind: 'cell', circuitId: 13, column: 'irLiveEarth', text: '>200', reason: null, how: 'dictated' },
     ]);
-    expect(activeCell(grid)).toBe(cellOf(grid, '3', 'Zs'));
+    expect(activeCell(grid)).toBe(cellOf(grid, '3', 'L-E'));
     await user.keyboard('{Control>}z{/Control}');
     expect(calls.slice(3).map((c) => (c.kind === 'cell' ? `${c.circuitId} ${c.column}=${c.text}` : ''))).toEqual(['13 irLiveEarth=2', '13 zs=', '11 zs=0.44']);
     await user.keyboard('17 .5{Enter}');
