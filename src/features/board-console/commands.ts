@@ -160,6 +160,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     // Cells
     {
       id: 'console.fill-from-above',
+      changesData: true,
       label: 'Same as above, then down',
       group: groups.cells,
       keywords: ['ditto', 'copy from above', 'repeat'],
@@ -169,6 +170,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.fill-down',
+      changesData: true,
       label: 'Fill the selection down',
       group: groups.cells,
       keywords: ['fill', 'copy down', 'repeat'],
@@ -178,6 +180,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.undo',
+      changesData: true,
       label: 'Undo the last edit',
       group: groups.cells,
       keywords: ['back', 'revert'],
@@ -187,6 +190,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.redo',
+      changesData: true,
       label: 'Redo the edit undone',
       group: groups.cells,
       keywords: ['again'],
@@ -210,6 +214,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.paste',
+      changesData: true,
       label: 'Paste cells from the clipboard',
       group: groups.cells,
       keywords: ['clipboard', 'spreadsheet', 'tsv'],
@@ -221,6 +226,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.clear',
+      changesData: true,
       label: 'Clear the selected cells',
       group: groups.cells,
       keywords: ['delete', 'empty', 'erase'],
@@ -229,6 +235,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.mark-limitation',
+      changesData: true,
       label: 'Mark a limitation (LIM) with its reason',
       group: groups.cells,
       keywords: ['lim', 'limitation', 'not tested', 'reason'],
@@ -249,6 +256,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.clear-limitation',
+      changesData: true,
       label: 'Clear the limitation',
       group: groups.cells,
       keywords: ['lim', 'limitation', 'remove'],
@@ -268,6 +276,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.tick-polarity',
+      changesData: true,
       label: 'Tick polarity on the selected circuits',
       group: groups.cells,
       keywords: ['polarity', 'tick', '✓', 'confirmed'],
@@ -281,6 +290,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.keep-theirs',
+      changesData: true,
       label: 'Conflict: keep their value',
       group: groups.cells,
       keywords: ['conflict', 'theirs', 'discard mine'],
@@ -293,6 +303,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.write-mine',
+      changesData: true,
       label: 'Conflict: write my value over theirs',
       group: groups.cells,
       keywords: ['conflict', 'mine', 'overwrite'],
@@ -307,6 +318,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     // Circuits
     {
       id: 'console.set-device',
+      changesData: true,
       label: 'Set the protective device of the selected circuits',
       group: groups.circuits,
       keywords: ['device', 'breaker', 'mcb', 'rcbo', 'fuse', 'rating', 'ka', 'standard'],
@@ -328,6 +340,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.set-cable',
+      changesData: true,
       label: 'Set the cable of the selected circuits',
       group: groups.circuits,
       keywords: ['cable', 'csa', 'conductor', 'live', 'cpc', 'mm²'],
@@ -345,6 +358,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.link-spur',
+      changesData: true,
       label: 'Link a spur to its ring and origin point',
       group: groups.circuits,
       keywords: ['spur', 'ring', 'origin', 'socket', 'branch'],
@@ -405,6 +419,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.insert-circuit',
+      changesData: true,
       label: 'Insert a circuit below',
       group: groups.circuits,
       keywords: ['add', 'new circuit', 'row'],
@@ -422,6 +437,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.duplicate-circuit',
+      changesData: true,
       label: 'Duplicate the circuit (details, not readings)',
       group: groups.circuits,
       keywords: ['copy', 'clone', 'same as'],
@@ -441,6 +457,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.remove-circuit',
+      changesData: true,
       label: 'Remove the circuit',
       group: groups.circuits,
       keywords: ['delete', 'remove', 'row'],
@@ -461,6 +478,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.renumber-circuit',
+      changesData: true,
       label: 'Renumber the circuit',
       group: groups.circuits,
       keywords: ['number', 'rename'],
@@ -481,6 +499,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.add-three-phase-group',
+      changesData: true,
       label: 'Add a three-phase group (nL1, nL2, nL3)',
       group: groups.circuits,
       keywords: ['three phase', 'l1 l2 l3', 'way', 'tp'],
@@ -581,6 +600,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     // Board
     {
       id: 'console.lock',
+      changesData: true,
       label: 'Lock the board',
       group: groups.board,
       keywords: ['lock', 'review', 'finish', 'freeze'],
@@ -600,6 +620,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.unlock',
+      changesData: true,
       label: 'Unlock the board',
       group: groups.board,
       keywords: ['unlock', 'reopen', 'edit again'],
