@@ -5,10 +5,11 @@ import {
   parseSectionChanges,
   sectionsFor,
   writeJobSectionBodySchema,
+  type JobSectionData,
   type JobSectionKey,
 } from '../../shared/schemas/job-record.ts';
 import { jobDetailResponseSchema, jobHistoryResponseSchema, writeJobSectionResponseSchema } from '../../shared/schemas/jobs.ts';
-import { createBoardBodySchema, createJobBodySchema, jobListResponseSchema, jobResponseSchema, jobStateLabels, updateJobBodySchema } from '../../shared/schemas/sites.ts';
+import { createBoardBodySchema, createJobBodySchema, jobListResponseSchema, jobResponseSchema, jobStateLabels, updateJobBodySchema, type SiteFields } from '../../shared/schemas/sites.ts';
 import { loadBoard } from '../db/boards.ts';
 import { boardReferenceTaken, copyBoard, copyBoardsOfJob, createEmptyBoard } from '../db/board-creation.ts';
 import { loadCompany } from '../db/company.ts';
@@ -17,7 +18,7 @@ import { loadJobRecord, loadJobSection, mergeSectionChanges, writeJobSection } f
 import { findJobRow, insertJob, latestJobCursor, listJobHistory, nextJobReference, referenceTaken, updateJobDetails } from '../db/jobs.ts';
 import { parseHistoryText } from '../db/json-values.ts';
 import { toJob, toSite } from '../db/mappers.ts';
-import { findSiteRow, listBoardSummaries, listJobs, toBoardSummary } from '../db/sites.ts';
+import { findSiteRow, listBoardSummaries, listJobs, toBoardSummary, updateSite } from '../db/sites.ts';
 import type { JobRow } from '../db/types.ts';
 import { userNames } from '../db/users.ts';
 import { HttpError, notFound } from '../http-error.ts';
@@ -25,6 +26,22 @@ import { jobFindings } from '../job-findings.ts';
 import { describeSectionIssues, issuesError, sectionChangeIssues, sectionTitles, type JobBoardsIndex } from '../job-section-checks.ts';
 import { currentUser } from '../middleware/auth.ts';
 import { idParam } from './params.ts';
+
+/**
+ * The supply characteristics recorded on a visit become the site's own (earthing, U0, Ze, Ipf at
+ * the origin), so the board checker (which reads the site) and the job rules (which read the
+ * record) judge the same installation. Blank values leave the site's as they were.
+ */
+async function siteFollowsSupply(db: DB, siteId: number, supply: JobSectionData['supply'], userId: number): Promise<void> {
+  const site = await findSiteRow(db, siteId);
+  if (!site) return;
+  const changes: Partial<SiteFields> = {};
+  if (supply.earthing !== null) changes.earthing = supply.earthing;
+  if (supply.u0V !== null && supply.u0V > 0) changes.nominalVoltageV = supply.u0V;
+  if (supply.zeOhm !== null) changes.zeOhm = supply.zeOhm;
+  if (supply.ipfKa !== null) changes.pfcKa = supply.ipfKa;
+  if (Object.keys(changes).length > 0) await updateSite(db, site, site.version, changes, userId);
+}
 
 async function requireJob(db: DB, jobId: number): Promise<JobRow> {
   const job = await findJobRow(db, jobId);
@@ -191,6 +208,9 @@ export function jobRoutes(db: DB): Router {
           `Someone else changed ${names} in the ${sectionTitles[key]} section meanwhile; look at their value and write yours again if it should stand.`,
           { section: result.current, fields: result.conflictingFields },
         );
+      }
+      if (key === 'supply' && result.changedFields.length > 0) {
+        await siteFollowsSupply(trx, job.site_id, result.section.data as JobSectionData['supply'], user.id);
       }
       return result.section;
     });

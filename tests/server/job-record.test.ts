@@ -47,6 +47,16 @@ describe('PUT /api/jobs/:jobId/record/:section', () => {
     expect(detail.record.supply).toEqual(body.section);
   });
 
+  it('when the supply section records TT and Ze, then the site follows, so the board checker judges the same earthing as the job rules', async () => {
+    const agent = await t.signIn('tester');
+    // TT with Ze through the electrode of tens of ohms is normal (BS 7671:2018 Table 41.5 note — common practice).
+    expect((await agent.put(url('supply')).send({ version: 0, changes: { earthing: 'TT', zeOhm: 48, u0V: 230 } })).status).toBe(200);
+    const board = (await agent.get(`/api/boards/${t.ids.board}`)).body;
+    expect(board.site).toMatchObject({ earthing: 'TT', zeOhm: 48, nominalVoltageV: 230 });
+    const siteHistory = await t.db.selectFrom('site_history').select(['field', 'new_text']).where('field', '=', 'earthing').execute();
+    expect(siteHistory).toEqual([{ field: 'earthing', new_text: '"TT"' }]);
+  });
+
   it('when two people change different fields of a section from the same version, then both land and are merged', async () => {
     const a = await t.signIn('tester');
     const b = await t.signIn('tester2');

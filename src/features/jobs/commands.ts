@@ -29,7 +29,7 @@ export const NEW_SITE_KEY = 'Alt+Shift+KeyS';
 export const NEW_JOB_KEY = 'Alt+Shift+KeyJ';
 export const NEW_BOARD_KEY = 'Alt+Shift+KeyB';
 export const EDIT_SITE_KEY = 'Alt+Shift+KeyE';
-export const OPEN_JOB_KEY = 'Alt+Shift+KeyO';
+export const OPEN_JOB_KEY = 'Alt+Shift+KeyG';
 
 /** The site the person is looking at: the chosen board's, or the only one the search leaves. */
 function siteInView(ctx: JobsContext): number | undefined {
@@ -103,9 +103,9 @@ export function createJobsCommands(getCtx: () => JobsContext | null): Command<Jo
     },
     {
       id: 'jobs.open-job',
-      label: 'Open a job',
+      label: 'Go to a job',
       group: 'Jobs',
-      keywords: ['job screen', 'certificate', 'report', 'record', 'go to'],
+      keywords: ['open', 'job screen', 'certificate', 'report', 'record'],
       shortcut: OPEN_JOB_KEY,
       when: hasJob,
       params: [{ name: 'jobId', label: 'Which job?', kind: 'choice', required: true, options: jobChoices }],

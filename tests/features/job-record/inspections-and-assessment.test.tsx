@@ -13,6 +13,9 @@ function renderJob(server: ReturnType<typeof createFakeJobServer>) {
 const puts = (calls: ApiCall[], section: string) => calls.filter((c) => c.method === 'PUT' && c.path.endsWith(`/record/${section}`));
 const assessment = () => screen.getByTestId('overall-assessment');
 
+// The whole screen renders in jsdom; on a busy two-core machine the first render alone can take seconds.
+vi.setConfig({ testTimeout: 20_000 });
+
 afterEach(() => {
   vi.unstubAllGlobals();
 });

@@ -56,6 +56,7 @@ export function createFakeJobServer(kind: 'EIC' | 'EICR' = 'EICR', state: Job['s
   };
   /** section.field → version at which it last changed. */
   const changedAt = new Map<string, number>();
+  const history: unknown[] = [];
   const theJob = job(kind, state);
   let locked = state === 'approved' || state === 'issued';
   const findings = () => checkJob({ kind, record: Object.fromEntries(jobSectionKeys.map((k) => [k, record[k].data])) as JobSectionData, boards: [] });
@@ -85,6 +86,8 @@ export function createFakeJobServer(kind: 'EIC' | 'EICR' = 'EICR', state: Job['s
     }
     entry.version += 1;
     for (const [field, value] of Object.entries(parsed.data as Record<string, unknown>)) {
+      const oldValue = (entry.data as Record<string, unknown>)[field] ?? null;
+      history.push({ id: history.length + 1, section, field, action: 'record', oldValue, newValue: value, reason: null, by: { id: 2, name: 'Dana Whitlock' }, at: '2026-11-20T10:15:00.000Z' });
       if (value === null && (section === 'inspections' || section === 'observations')) delete (entry.data as Record<string, unknown>)[field];
       else (entry.data as Record<string, unknown>)[field] = value;
       changedAt.set(`${section}.${field}`, entry.version);
@@ -100,6 +103,7 @@ export function createFakeJobServer(kind: 'EIC' | 'EICR' = 'EICR', state: Job['s
     },
     handlers: {
       [`GET /api/jobs/${theJob.id}`]: () => json(200, detail()),
+      [`GET /api/jobs/${theJob.id}/history`]: () => json(200, { entries: history }),
       ...Object.fromEntries(jobSectionKeys.map((key) => [`PUT /api/jobs/${theJob.id}/record/${key}`, put])),
       [`GET /api/boards/${board.id}`]: () =>
         json(200, {
@@ -111,6 +115,6 @@ export function createFakeJobServer(kind: 'EIC' | 'EICR' = 'EICR', state: Job['s
       'GET /api/sites': () => json(200, { sites: [site] }),
       'GET /api/jobs': () => json(200, { jobs: [theJob] }),
       'GET /api/boards': () => json(200, { boards: [board] }),
-    } as Record<string, (call: ApiCall) => Response>,
+    } as Record<string, (call: ApiCall) => Response | Promise<Response>>,
   };
 }

@@ -12,6 +12,9 @@ function renderJob(server: ReturnType<typeof createFakeJobServer>) {
 
 const puts = (calls: ApiCall[], section: string) => calls.filter((c) => c.method === 'PUT' && c.path.endsWith(`/record/${section}`));
 
+// The whole screen renders in jsdom; on a busy two-core machine the first render alone can take seconds.
+vi.setConfig({ testTimeout: 20_000 });
+
 afterEach(() => {
   vi.unstubAllGlobals();
 });
@@ -153,5 +156,61 @@ describe('job screen: the server refuses an observation', () => {
     await waitFor(() => expect(board).toHaveAttribute('aria-invalid', 'true'));
     expect(within(dialog).getByText('Board 301 is not a board of this job.')).toBeInTheDocument();
     expect(screen.getByRole('dialog', { name: 'New observation' })).toBeInTheDocument();
+  });
+});
+
+describe('job screen: changes to the record', () => {
+  it('when the changes are opened, then each saved field shows with who changed it, from what to what, newest first', async () => {
+    const server = createFakeJobServer('EICR');
+    const { user } = renderJob(server);
+    const ze = await screen.findByLabelText('External loop impedance Ze (Ω)');
+    await user.click(ze);
+    await user.keyboard('0.28{Enter}0.3{Enter}');
+    await waitFor(() => expect(server.record.supply.data.ipfKa).toBe(0.3));
+
+    const summary = screen.getByText('Changes to the record');
+    await user.click(summary);
+    const panel = summary.closest('details')!;
+    await waitFor(() => expect(within(panel).getAllByRole('listitem')).toHaveLength(2));
+    const items = within(panel).getAllByRole('listitem');
+    expect(items[0]).toHaveTextContent('Dana Whitlock');
+    expect(items[0]).toHaveTextContent('Supply characteristics and earthing arrangements, Prospective fault current Ipf (kA): blank → 0.3');
+    expect(items[1]).toHaveTextContent('External loop impedance Ze (Ω): blank → 0.28');
+  });
+});
+
+describe('job screen: a slow reload of the job', () => {
+  it('when a reload that started before a save lands after it, then the saved value stays and the next save of the same field carries the newer version', async () => {
+    const server = createFakeJobServer('EICR');
+    const { user, calls, queryClient } = renderJob(server);
+    const ze = await screen.findByLabelText('External loop impedance Ze (Ω)');
+
+    // A reload of the job starts now, but its answer (taken now, before the save) arrives late.
+    let release!: () => void;
+    const released = new Promise<void>((resolve) => (release = resolve));
+    const getJob = server.handlers['GET /api/jobs/41']!;
+    server.handlers['GET /api/jobs/41'] = async (call) => {
+      const answer = getJob(call);
+      await released;
+      return answer;
+    };
+    void queryClient.invalidateQueries({ queryKey: ['jobs'] });
+
+    await user.click(ze);
+    await user.keyboard('0.28{Tab}');
+    await waitFor(() => expect(server.record.supply.data.zeOhm).toBe(0.28));
+    release();
+    await waitFor(() => expect(calls.filter((c) => c.method === 'GET' && c.path === '/api/jobs/41')).toHaveLength(2));
+    await new Promise((resolve) => setTimeout(resolve, 50));
+    expect(ze).toHaveValue('0.28');
+
+    await user.clear(ze);
+    await user.type(ze, '0.31{Tab}');
+    await waitFor(() => expect(server.record.supply.data.zeOhm).toBe(0.31));
+    expect(puts(calls, 'supply').map((c) => c.body)).toEqual([
+      { version: 0, changes: { zeOhm: 0.28 } },
+      { version: 1, changes: { zeOhm: 0.31 } },
+    ]);
+    expect(screen.queryByRole('alert')).not.toBeInTheDocument();
   });
 });

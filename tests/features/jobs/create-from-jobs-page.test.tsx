@@ -42,8 +42,17 @@ beforeEach(() => {
       return json(201, { job });
     },
     'POST /api/jobs/10/boards': () => json(201, { board: { id: 150, reference: 'DB3' } }),
+    'PATCH /api/sites/1': (call) => {
+      const body = call.body as { version: number; changes: Partial<Site> };
+      const site = { ...siteList[0]!, ...body.changes, version: body.version + 1 };
+      siteList = [site, ...siteList.slice(1)];
+      return json(200, { site });
+    },
   });
 });
+
+// The whole screen renders in jsdom; on a busy two-core machine the first render alone can take seconds.
+vi.setConfig({ testTimeout: 20_000 });
 
 afterEach(() => {
   vi.unstubAllGlobals();
@@ -152,5 +161,42 @@ describe('new site, job and board from the jobs page', () => {
     await user.keyboard('{Enter}');
     await waitFor(() => expect(posts('/api/jobs/10/boards')).toHaveLength(1));
     expect(posts('/api/jobs/10/boards')[0]!.body).toEqual({ reference: 'DB1 (2027)', location: '', suppliedFrom: '', layout: 'single-phase', copyFromBoardId: 101 });
+  });
+});
+
+describe('editing a site from the jobs page', () => {
+  it('when a site is chosen in the palette and its contact e-mail changed, then only that field is sent with the site’s version', async () => {
+    const { user } = renderJobs();
+    await screen.findByRole('link', { name: 'DB1' });
+
+    await user.keyboard('{Alt>}{Shift>}e{/Shift}{/Alt}');
+    const palette = await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('harbour{Enter}');
+    await waitFor(() => expect(palette).not.toBeInTheDocument());
+    const dialog = await screen.findByRole('dialog', { name: 'Edit site Harbour Bakery' });
+    expect(within(dialog).getByLabelText('Client')).toHaveValue('Harbour Bakery');
+
+    // Nothing changed: the schema's own words, at the form.
+    await user.keyboard('{Enter}');
+    expect(within(dialog).getByRole('alert')).toHaveTextContent('Nothing to change.');
+    expect(calls.filter((c) => c.method === 'PATCH')).toHaveLength(0);
+
+    await user.type(within(dialog).getByLabelText('Contact e-mail'), 'orders@harbour-bakery.example{Enter}');
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(calls.filter((c) => c.method === 'PATCH').map((c) => c.body)).toEqual([{ version: 1, changes: { contactEmail: 'orders@harbour-bakery.example' } }]);
+    expect(screen.getByText('Site Harbour Bakery saved.')).toBeInTheDocument();
+  });
+});
+
+describe('going to a job screen from the jobs page', () => {
+  it('when Go to a job is chosen by its key and a job named, then its job screen opens', async () => {
+    const { user, currentPath } = renderJobs();
+    await screen.findByRole('link', { name: 'DB1' });
+    await user.keyboard('{Alt>}{Shift>}g{/Shift}{/Alt}');
+    await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('EL-NEW{Enter}');
+    await waitFor(() => expect(currentPath()).toBe('/jobs/20'));
+    // Each job also has its own link.
+    expect(screen.getByText('Job screen')).toBeInTheDocument();
   });
 });

@@ -33,6 +33,7 @@ export const jobDetailQueryOptions = (jobId: number) =>
     queryFn: ({ signal }) => getJob(jobId, signal),
   });
 
-export function useJobDetail(jobId: number) {
-  return useQuery(jobDetailQueryOptions(jobId));
+/** `select` may lift the record to what the screen's own writes already know (see RecordSaver.withLatest). */
+export function useJobDetail(jobId: number, select?: (detail: JobDetail) => JobDetail) {
+  return useQuery({ ...jobDetailQueryOptions(jobId), select });
 }

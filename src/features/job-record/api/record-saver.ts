@@ -77,7 +77,24 @@ export class RecordSaver {
     return this.queryClient.getQueryData<JobDetail>(jobRecordKeys.detail(this.jobId));
   }
 
+  /**
+   * The newest state of each section this saver has heard from the server. A refetch of the job
+   * that started before a write landed can bring back an older section; `withLatest` puts the
+   * newer one back, and writes never send a version older than this.
+   */
+  private readonly latest = new Map<JobSectionKey, { data: unknown; version: number }>();
+
+  /** The job with every section at least as new as the answers this saver has had. */
+  withLatest = (detail: JobDetail): JobDetail => {
+    let record = detail.record;
+    for (const [section, state] of this.latest) {
+      if (state.version > record[section].version) record = { ...record, [section]: normaliseSection(section, state) };
+    }
+    return record === detail.record ? detail : { ...detail, record };
+  };
+
   private putSection(section: JobSectionKey, state: { data: unknown; version: number }, extra: Partial<Pick<JobDetail, 'findings' | 'cursor'>> = {}) {
+    if (state.version >= (this.latest.get(section)?.version ?? -1)) this.latest.set(section, state);
     this.queryClient.setQueryData<JobDetail>(jobRecordKeys.detail(this.jobId), (detail) => {
       if (!detail) return detail;
       // A version never goes back: an older answer arriving late leaves the newer section alone.
@@ -106,7 +123,7 @@ export class RecordSaver {
   }
 
   private async send(section: JobSectionKey, field: string, value: unknown): Promise<SaveOutcome> {
-    const version = this.detail()?.record[section].version ?? 0;
+    const version = Math.max(this.detail()?.record[section].version ?? 0, this.latest.get(section)?.version ?? 0);
     try {
       const answer = await writeSection(this.jobId, section, { version, changes: { [field]: value } });
       this.putSection(section, answer.section, { findings: answer.findings, cursor: answer.cursor });

@@ -161,7 +161,7 @@ export function InspectionsSchedule({
         </p>
       }
     >
-      <div className="flex flex-wrap gap-x-4 gap-y-1 text-xs" aria-label="Outcome keys">
+      <div className="flex flex-wrap gap-x-4 gap-y-1 text-xs">
         {keys.map((k) => (
           <span key={k.key}>
             <kbd className="rounded border border-line-strong bg-paper px-1 font-mono">{k.key}</kbd> {outcomeWords[k.outcome]}

@@ -32,6 +32,15 @@ export function JobHeader() {
           {job.visitEndDate && job.visitEndDate !== job.visitDate ? ` to ${longDate(job.visitEndDate)}` : ''}
         </span>
       </div>
+      {job.startedFromJobId !== null && (
+        <p className="text-sm text-muted">
+          Started from{' '}
+          <Link to={`/jobs/${job.startedFromJobId}`} className="text-accent underline-offset-2 hover:underline">
+            an earlier job on this site
+          </Link>
+          : its boards and circuit details were copied, readings start empty.
+        </p>
+      )}
       <p>
         <span className="font-medium">{site.client}</span> · {site.address}
         {site.description && <span className="text-muted"> · {site.description}</span>}
@@ -40,7 +49,7 @@ export function JobHeader() {
       <div>
         <h2 className="text-sm font-semibold">Boards</h2>
         {boards.length === 0 ? (
-          <p className="text-muted">No boards yet. Add one with the “New board” command.</p>
+          <p className="text-muted">No boards yet. Add one with “New board” (Alt+Shift+B, or from the palette).</p>
         ) : (
           <table className="w-full max-w-3xl text-sm">
             <caption className="sr-only">Boards of this job</caption>

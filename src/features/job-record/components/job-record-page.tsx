@@ -24,6 +24,7 @@ import {
 import { InspectionsSchedule, type InspectionsHandle } from './inspections-schedule.tsx';
 import { JobFindings } from './job-findings.tsx';
 import { JobHeader } from './job-header.tsx';
+import { JobHistory } from './job-history.tsx';
 import { ObservationForm, ObservationsSection, useObservationList, type ObservationFormTarget } from './observations.tsx';
 import { fieldDomId, RecordContext, sectionDomId, type RecordContextValue } from './record-context.tsx';
 import { ClientSection, ExtentSection, InstallationSection, OriginSection, SupplySection, WorkSection } from './record-sections.tsx';
@@ -40,10 +41,10 @@ export interface JobRecordPageProps {
 export function JobRecordPage(props: JobRecordPageProps) {
   const { jobId: param } = useParams();
   const jobId = Number(param);
-  const job = useJobDetail(jobId);
   const queryClient = useQueryClient();
   // One saver per job shown: it keeps the save state of every field.
   const saver = useMemo(() => new RecordSaver(queryClient, jobId), [queryClient, jobId]);
+  const job = useJobDetail(jobId, saver.withLatest);
 
   if (!Number.isInteger(jobId) || jobId <= 0) return <p className="p-4">There is no such job.</p>;
   if (job.isPending) return <p className="p-4 text-muted">Loading the job…</p>;
@@ -175,6 +176,7 @@ function JobScreen({ detail, saver, actions = [], panels }: JobRecordPageProps &
           <aside className="space-y-4 xl:sticky xl:top-4" aria-label="Findings and more">
             <JobFindings onGoTo={goToFinding} />
             {panels}
+            <JobHistory />
             <Caution />
           </aside>
         </div>

@@ -2,7 +2,7 @@ import { useDeferredValue, useEffect, useId, useLayoutEffect, useMemo, useRef, u
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { tinykeys } from 'tinykeys';
 import type { BoardSummary } from '../../../../shared/schemas/boards.ts';
-import type { Job } from '../../../../shared/schemas/sites.ts';
+import { jobStateLabels, type Job } from '../../../../shared/schemas/sites.ts';
 import { CommandPalette } from '../../../components/command-palette.tsx';
 import { FormDialog } from '../../../components/form-dialog.tsx';
 import { KeysOverlay, ShortcutKeys } from '../../../components/keys-overlay.tsx';
@@ -368,6 +368,7 @@ function SiteSection({
               {job.reference}
             </Link>
             <span className="text-muted">visited {formatVisitDate(job.visitDate)}</span>
+            <span className="rounded border border-line px-1.5 text-xs text-muted">{jobStateLabels[job.state]}</span>
           </h3>
           {boards.length === 0 ? (
             <p className="px-3 pb-2 text-muted">No boards on this job yet.</p>
