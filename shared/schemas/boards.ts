@@ -101,6 +101,9 @@ export const boardSummarySchema = z.object({
   circuitCount: z.number().int(),
   /** Reading cells holding a value. */
   cellsFilled: z.number().int(),
+  /** Readings the board's circuits need (the checker's required columns), and how many hold a value. */
+  readingsRequired: z.number().int(),
+  readingsDone: z.number().int(),
   site: z.object({ id: z.number().int(), client: z.string(), address: z.string() }),
   job: z.object({ id: z.number().int(), kind: z.string(), reference: z.string() }),
 });

@@ -15,7 +15,7 @@ import { NewBoardForm } from './forms/new-board-form.tsx';
 import { NewJobForm } from './forms/new-job-form.tsx';
 import { SiteForm } from './forms/site-form.tsx';
 import { searchJobs, visibleBoards } from '../search-jobs.ts';
-import { BoardProgress, readingCellCount } from './board-progress.tsx';
+import { BoardProgress, progressPercent } from './board-progress.tsx';
 import { BoardStateLabel } from './board-state-label.tsx';
 
 const jobKindNames: Record<Job['kind'], string> = {
@@ -33,7 +33,7 @@ const boardRowId = (boardId: number) => `jobs-board-${boardId}`;
 
 function describeBoard(board: BoardSummary): string {
   const where = board.location ? `, ${board.location}` : '';
-  return `${board.reference}${where} (${board.site.client}, ${board.job.reference}): ${board.state}, ${board.circuitCount} circuits, ${board.cellsFilled} of ${readingCellCount(board.circuitCount)} cells filled. Enter opens it.`;
+  return `${board.reference}${where} (${board.site.client}, ${board.job.reference}): ${board.state}, ${board.circuitCount} circuits, ${progressPercent(board.readingsDone, board.readingsRequired)} % done, ${board.readingsDone} of ${board.readingsRequired} needed readings typed. Enter opens it.`;
 }
 
 /** True when a key press belongs to a field the person is typing in. */
@@ -418,7 +418,7 @@ function SiteSection({
                       </td>
                       <td className="px-3 py-1 text-right tabular-nums">{board.circuitCount}</td>
                       <td className="px-3 py-1">
-                        <BoardProgress cellsFilled={board.cellsFilled} circuitCount={board.circuitCount} />
+                        <BoardProgress readingsDone={board.readingsDone} readingsRequired={board.readingsRequired} />
                       </td>
                     </tr>
                   );
