@@ -5,7 +5,8 @@
  * controller, so it is saved by the sync engine and can be undone like a typed one.
  */
 import type { BoardDetail, Circuit, CircuitFields } from '../../../shared/schemas/boards.ts';
-import { columnByKey, columnGroups, columns, isReadingKey, type ColumnKey } from '../../../shared/schemas/columns.ts';
+import { columnByKey, columnGroups, columns, isReadingKey, type ColumnGroupId, type ColumnKey } from '../../../shared/schemas/columns.ts';
+import { foldShortcut, type ConsoleLayout, type FindingsPanelSize } from './layout/console-layout.ts';
 import type { Role } from '../../../shared/schemas/common.ts';
 import type { Command } from '../../lib/commands/types.ts';
 import { fieldText } from './grid/cell-value.ts';
@@ -33,6 +34,10 @@ export interface ConsoleContext {
     focusFindings(): void;
     /** Starts a download of a text file. */
     download(fileName: string, mimeType: string, text: string): void;
+    /** The person's layout: folded groups and the findings panel's size. */
+    layout: ConsoleLayout;
+    toggleGroup(group: ColumnGroupId): void;
+    setFindingsPanel(size: FindingsPanelSize): void;
   };
 }
 
@@ -42,6 +47,7 @@ const groups = {
   cells: 'Cells',
   circuits: 'Circuits',
   goTo: 'Go to',
+  layout: 'Layout',
   board: 'Board',
   help: 'Help',
 } as const;
@@ -576,6 +582,33 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         if (!column) return;
         const circuitId = ctx.grid.active?.circuitId ?? positionAt(ctx.grid.shape, { row: 0, col: 0 }).circuitId;
         ctx.grid.moveTo({ circuitId, column: column.key });
+        ctx.grid.focusGrid();
+      },
+    },
+    // Layout (remembered per person)
+    ...columnGroups.map(
+      (group): ConsoleCommand => ({
+        id: `console.fold-${group.id}`,
+        label: `Fold or unfold ${group.label.toLowerCase()}`,
+        group: groups.layout,
+        keywords: ['fold', 'unfold', 'collapse', 'expand', 'hide columns', 'laptop', group.label.toLowerCase()],
+        shortcut: foldShortcut(group.id),
+        run: (ctx) => {
+          ctx.ui.toggleGroup(group.id);
+          ctx.grid.focusGrid();
+        },
+      }),
+    ),
+    {
+      id: 'console.findings-panel',
+      label: 'Findings panel: wide, narrow or hidden',
+      group: groups.layout,
+      keywords: ['findings', 'panel', 'hide', 'narrow', 'width', 'laptop'],
+      shortcut: 'Alt+Shift+KeyF',
+      run: (ctx) => {
+        const order: FindingsPanelSize[] = ['wide', 'narrow', 'hidden'];
+        const next = order[(order.indexOf(ctx.ui.layout.findings) + 1) % order.length]!;
+        ctx.ui.setFindingsPanel(next);
         ctx.grid.focusGrid();
       },
     },

@@ -1,7 +1,8 @@
 import { useCallback, useDeferredValue, useMemo, useRef, useState, type KeyboardEvent } from 'react';
 import type { BoardDetail } from '../../../../shared/schemas/boards.ts';
 import type { Role } from '../../../../shared/schemas/common.ts';
-import { columnByKey, isReadingKey, type ColumnKey } from '../../../../shared/schemas/columns.ts';
+import { columnByKey, columnGroups, isReadingKey, type ColumnKey } from '../../../../shared/schemas/columns.ts';
+import { layoutColumns, loadLayout, saveLayout, type ConsoleLayout } from '../layout/console-layout.ts';
 import type { Finding } from '../../../../shared/schemas/findings.ts';
 import { CommandPalette } from '../../../components/command-palette.tsx';
 import { KeysOverlay, type KeysSection } from '../../../components/keys-overlay.tsx';
@@ -32,6 +33,8 @@ export interface BoardConsoleProps {
   role: Role | null;
   /** Why the board cannot be locked yet (the completeness gate); null while not known. */
   lockReasons?: readonly string[] | null;
+  /** The signed-in person's id: their folded groups and findings panel are remembered under it. */
+  personId?: number | null;
 }
 
 function downloadText(fileName: string, mimeType: string, text: string): void {
@@ -61,7 +64,7 @@ function keepTextEditingKeys(event: KeyboardEvent) {
  * and the status line; the palette and the keys overlay on top. One command registry feeds the
  * palette, the key bindings and the overlay.
  */
-export function BoardConsole({ sync, detail, findings, role, lockReasons = null }: BoardConsoleProps) {
+export function BoardConsole({ sync, detail, findings, role, lockReasons = null, personId = null }: BoardConsoleProps) {
   const board = detail.board;
   const lockedReason =
     board.state === 'locked' ? `Board ${board.reference} is locked${board.lockedBy ? ` by ${board.lockedBy.name}` : ''}: a reviewer must unlock it before anything changes.` : null;
@@ -82,7 +85,19 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
     return set;
   }, [registry]);
 
-  const grid = useGridController({ sync, detail, lockedReason, commandCharacters });
+  const [layout, setLayoutState] = useState<ConsoleLayout>(() => loadLayout(personId));
+  const setLayout = useCallback(
+    (change: (current: ConsoleLayout) => ConsoleLayout) =>
+      setLayoutState((current) => {
+        const next = change(current);
+        saveLayout(personId, next);
+        return next;
+      }),
+    [personId],
+  );
+  const gridColumns = useMemo(() => layoutColumns(layout.folded), [layout.folded]);
+
+  const grid = useGridController({ sync, detail, lockedReason, commandCharacters, columns: gridColumns });
 
   const [paletteOpen, setPaletteOpen] = useState(false);
   const [paletteCommand, setPaletteCommand] = useState<string | undefined>(undefined);
@@ -188,11 +203,28 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
       openKeys: () => setKeysOpen(true),
       openQuickEntry: () => quickEntryRef.current?.focus(),
       focusFindings: () => {
+        if (layout.findings === 'hidden') {
+          // Going to the findings shows the panel again (narrow or wide as it was before hiding: wide).
+          setLayout((current) => ({ ...current, findings: 'wide' }));
+          setTimeout(() => findingsRef.current?.querySelector<HTMLButtonElement>('button[data-finding]:not(:disabled)')?.focus(), 0);
+          return;
+        }
         const first = findingsRef.current?.querySelector<HTMLButtonElement>('button[data-finding]:not(:disabled)');
         if (first) first.focus();
         else grid.say('There is no finding to go to.');
       },
       download: downloadText,
+      layout,
+      toggleGroup: (group) => {
+        const folding = !layout.folded.includes(group);
+        setLayout((current) => ({ ...current, folded: folding ? [...current.folded, group] : current.folded.filter((g) => g !== group) }));
+        const label = columnGroups.find((g) => g.id === group)?.label ?? group;
+        grid.say(`${label} ${folding ? 'folded to one column' : 'unfolded'}.`);
+      },
+      setFindingsPanel: (size) => {
+        setLayout((current) => ({ ...current, findings: size }));
+        grid.say(size === 'hidden' ? 'Findings panel hidden.' : `Findings panel ${size}.`);
+      },
     },
   };
   ctxRef.current = ctx;
@@ -328,13 +360,16 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
           onCellPointerDown={grid.onCellPointerDown}
           onCellDoubleClick={grid.onCellDoubleClick}
         />
-        <FindingsPanel
-          findings={panelFindings}
-          circuitOrder={grid.shape.rows}
-          circuitNumbers={circuitNumbers}
-          onJump={onJumpToFinding}
-          listRef={findingsRef}
-        />
+        {layout.findings !== 'hidden' && (
+          <FindingsPanel
+            findings={panelFindings}
+            circuitOrder={grid.shape.rows}
+            circuitNumbers={circuitNumbers}
+            onJump={onJumpToFinding}
+            listRef={findingsRef}
+            narrow={layout.findings === 'narrow'}
+          />
+        )}
       </div>
       <ConflictList
         conflicts={sync.conflicts}

@@ -9,6 +9,7 @@ import type { CellIndex, EditState, GridPosition, IndexRange } from '../grid/gri
 import { buildStep, rowsBeforeJump, rowsToRender } from '../grid/rows-ahead.ts';
 import { afterNextFrame } from '../sync/after-next-frame.ts';
 import type { Conflict } from '../sync/types.ts';
+import { frozenColumn, type GridColumn } from '../layout/console-layout.ts';
 import { cellDomId, cellErrorDomId, cellFindingDomId, cellKey, rowHeaderDomId } from './dom-ids.ts';
 
 /** Fixed row height (px): dense, and what the virtualiser counts on. */
@@ -147,7 +148,9 @@ export function BoardGrid(props: BoardGridProps) {
     else if (top + rowHeight > view.top + view.height) el.scrollTop = view.top = top - headerHeight - lead;
     const left = offsets.lefts[activeCol] ?? 0;
     const width = columns[activeCol]?.width ?? 0;
-    if (left - rowHeaderWidth < view.left) el.scrollLeft = view.left = left - rowHeaderWidth;
+    // The circuit number and the description stay at the left: a cell must clear them to be seen.
+    const frozenWidth = rowHeaderWidth + (columns[0]?.key === frozenColumn && activeCol > 0 ? columns[0].width : 0);
+    if (left - frozenWidth < view.left) el.scrollLeft = view.left = Math.max(0, left - frozenWidth);
     else if (left + width > view.left + view.width) el.scrollLeft = view.left = left + width - view.width;
   }, [activeRow, activeCol, gridRef, offsets, columns]);
 
@@ -281,8 +284,10 @@ const GridHeader = memo(function GridHeader({ columns, groups, width, activeCol 
             aria-colindex={i + 2}
             aria-label={c.unit ? `${c.label} (${c.unit})` : c.label}
             title={c.meaning}
-            className={`flex flex-col justify-end border-r border-line px-1.5 pb-1 leading-tight ${i === activeCol ? 'bg-accent-soft' : ''}`}
-            style={{ width: c.width }}
+            className={`flex flex-col justify-end border-r border-line px-1.5 pb-1 leading-tight ${i === activeCol ? 'bg-accent-soft' : ''} ${
+              c.key === frozenColumn ? 'z-10 bg-surface' : ''
+            } ${summaryOf(c) ? 'italic' : ''}`}
+            style={{ width: c.width, ...frozenStyle(c) }}
           >
             <span className="truncate text-xs font-semibold">{c.label}</span>
             <span className="h-3.5 truncate text-[11px] text-muted">{c.unit ?? ''}</span>
@@ -292,6 +297,23 @@ const GridHeader = memo(function GridHeader({ columns, groups, width, activeCol 
     </div>
   );
 });
+
+function summaryOf(column: ColumnDef): readonly ColumnDef['key'][] | undefined {
+  return (column as GridColumn).summaryOf;
+}
+
+/** A folded group's cell: the values of its columns side by side ("60898 B 32 6"). */
+function summaryText(circuit: Circuit, keys: readonly ColumnDef['key'][]): string {
+  const parts: string[] = [];
+  for (const key of keys) {
+    const text = cellText(circuit, key);
+    if (text !== '') parts.push(text);
+  }
+  return parts.join(' ');
+}
+
+/** The frozen description's left edge: just right of the circuit number. */
+const frozenStyle = (column: ColumnDef) => (column.key === frozenColumn ? { position: 'sticky' as const, left: rowHeaderWidth } : undefined);
 
 /** The refused-text messages of one circuit (a shared empty map when none, so rows stay memoised). */
 function rowErrors(errors: ReadonlyMap<string, string>, circuitId: number): ReadonlyMap<string, string> {
@@ -375,7 +397,7 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
             circuitNumber={circuit.number}
             column={column}
             col={col}
-            text={cellText(circuit, column.key)}
+            text={summaryOf(column) ? summaryText(circuit, summaryOf(column)!) : cellText(circuit, column.key)}
             limReason={reading && reading.text.toUpperCase() === 'LIM' ? reading.reason : null}
             isActive={isActive}
             selected={hasRange && col >= rangeLeft && col <= rangeRight}
@@ -445,8 +467,8 @@ const GridCell = memo(function GridCell(props: GridCellProps) {
       onDoubleClick={() => onDoubleClick({ circuitId, column: column.key })}
       className={`relative flex items-center border-r border-line ${severity ? severityCellClass[severity] : ''} ${
         selected && !isActive ? 'bg-accent-soft!' : ''
-      } ${isActive ? 'z-[1] outline-2 -outline-offset-2 outline-accent' : ''}`}
-      style={{ width: column.width }}
+      } ${isActive ? 'z-[1] outline-2 -outline-offset-2 outline-accent' : ''} ${column.key === frozenColumn ? 'z-[2] border-r-line-strong bg-surface' : ''}`}
+      style={{ width: column.width, ...frozenStyle(column) }}
     >
       {isActive && edit ? (
         <CellEditor

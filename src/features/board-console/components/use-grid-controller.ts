@@ -27,6 +27,7 @@ import { formatTsv, parseTsv } from '../grid/tsv.ts';
 import { emptyUndoStack, popRedo, popUndo, pushUndo, redoWrites, undoWrites, type CellChange, type CellWrite, type UndoStack } from '../grid/undo-stack.ts';
 import type { BoardSync, EntryMethod } from '../sync/types.ts';
 import { cellKey } from './dom-ids.ts';
+import type { GridColumn } from '../layout/console-layout.ts';
 import { writeCellText } from './write-cell-text.ts';
 
 /** A short message for the status line (what a key just did, or why it could not). */
@@ -90,6 +91,12 @@ export function useGridController(options: GridControllerOptions) {
   syncRef.current = sync;
   const lockedRef = useRef(lockedReason);
   lockedRef.current = lockedReason;
+  /** Folded groups' summary columns, by key, with the words that say how to unfold them. */
+  const summariesRef = useRef<ReadonlyMap<string, string>>(new Map());
+  summariesRef.current = useMemo(
+    () => new Map(columns.filter((c) => (c as GridColumn).summaryOf).map((c) => [c.key, `${c.label.replace(/ ▸$/, '')} is folded: unfold the group to type here`])),
+    [columns],
+  );
 
   const [state, dispatchRaw] = useReducer(
     (s: GridState, a: GridAction) => gridReducer(s, a, shapeRef.current),
@@ -147,6 +154,7 @@ export function useGridController(options: GridControllerOptions) {
   const appliesFrom = useCallback(
     (from: ColumnDef['key']): Applies =>
       (row, column) => {
+        if (summariesRef.current.has(column)) return false;
         const circuit = circuitsRef.current.get(shapeRef.current.rows[row] ?? -1);
         return circuit ? enterStopsAt(circuit, column, from) : true;
       },
@@ -268,11 +276,16 @@ export function useGridController(options: GridControllerOptions) {
       if (refuseIfLocked()) return;
       const position = resolveActive(stateRef.current, shapeRef.current);
       if (!position) return;
+      const folded = summariesRef.current.get(position.column);
+      if (folded) {
+        say(`${folded}.`, 'error');
+        return;
+      }
       const text = draft ?? read(position);
       // Synchronously, so the text box exists and has the focus before the next key arrives.
       flushSync(() => dispatch({ type: 'start-edit', mode, draft: text }));
     },
-    [dispatch, read, refuseIfLocked],
+    [dispatch, read, refuseIfLocked, say],
   );
 
   const cancelEdit = useCallback(() => {
@@ -338,7 +351,12 @@ export function useGridController(options: GridControllerOptions) {
   const clearSelection = useCallback(() => {
     const range = currentRange();
     if (!range) return;
-    const result = applyChanges(clearChanges(range, shapeRef.current, read), 'typed', 'cleared');
+    // A folded group's summary stands for several cells the typist cannot see: it is not cleared.
+    const result = applyChanges(
+      clearChanges(range, shapeRef.current, read).filter((c) => !summariesRef.current.has(c.column)),
+      'typed',
+      'cleared',
+    );
     if (result.refused.length > 0) say(`Not cleared — ${describeRefusals(result.refused)}`, 'error');
   }, [applyChanges, read, say]);
 
@@ -387,7 +405,9 @@ export function useGridController(options: GridControllerOptions) {
       const range = currentRange();
       if (!range) return;
       const block = parseTsv(text);
-      const { changes, written } = pasteChanges(block, range, shapeRef.current, read);
+      const pasted = pasteChanges(block, range, shapeRef.current, read);
+      const written = pasted.written;
+      const changes = pasted.changes.filter((c) => !summariesRef.current.has(c.column));
       if (changes.length === 0) {
         say('Nothing to paste.', 'error');
         return;

@@ -80,6 +80,8 @@ export interface ConsoleHarnessOptions {
   role?: Role | null;
   /** The completeness gate's reasons the console shows before locking. */
   lockReasons?: readonly string[] | null;
+  /** The signed-in person (their console layout is remembered under it). */
+  personId?: number | null;
 }
 
 /**
@@ -127,7 +129,7 @@ export function renderConsole(initial: BoardDetail, options: ConsoleHarnessOptio
       }),
       [detail],
     );
-    return <BoardConsole sync={sync} detail={detail} findings={options.findings ?? []} role={options.role ?? 'tester'} lockReasons={options.lockReasons ?? null} />;
+    return <BoardConsole sync={sync} detail={detail} findings={options.findings ?? []} role={options.role ?? 'tester'} lockReasons={options.lockReasons ?? null} personId={options.personId ?? null} />;
   }
 
   const user = userEvent.setup();

@@ -153,3 +153,57 @@ describe('quick entry', () => {
     expect(screen.getByRole('alert')).toHaveTextContent('a circuit detail: name the column');
   });
 });
+
+describe('the grid fits a laptop', () => {
+  it('when a group is folded with its key, then it shows as one summary column, the description stays, and the choice is remembered for that person', async () => {
+    localStorage.clear();
+    const first = renderConsole(house(), { personId: 7 });
+    await first.user.click(cellOf(first.grid, '1', 'Zs'));
+    await first.user.keyboard('{Alt>}{Shift>}2{/Shift}{/Alt}');
+    expect(() => cellOf(first.grid, '1', 'BS (EN)')).toThrow();
+    const summary = cellOf(first.grid, '1', 'Protective device ▸');
+    // The device of circuit 1 side by side: standard, type, rating, breaking capacity.
+    expect(summary).toHaveTextContent('60898 B 32 6');
+    expect(cellOf(first.grid, '1', 'Description')).toBeDefined();
+    // Typing on a summary is refused with the way out.
+    await first.user.click(summary);
+    await first.user.keyboard('7');
+    expect(first.calls).toEqual([]);
+    expect(screen.getByRole('status')).toHaveTextContent('Protective device is folded: unfold the group to type here');
+    first.unmount();
+
+    const again = renderConsole(house(), { personId: 7 });
+    expect(cellOf(again.grid, '1', 'Protective device ▸')).toBeDefined();
+    again.unmount();
+    const someoneElse = renderConsole(house(), { personId: 8 });
+    expect(cellOf(someoneElse.grid, '1', 'BS (EN)')).toBeDefined();
+    someoneElse.unmount();
+    localStorage.clear();
+  });
+
+  it('when Enter passes a folded reading group, then it skips the summary and goes on to the next reading', async () => {
+    localStorage.clear();
+    const { grid, user } = renderConsole(house(), { personId: 9 });
+    await user.click(cellOf(grid, '3', 'Polarity'));
+    await user.keyboard('{Alt>}{Shift>}5{/Shift}{/Alt}');
+    await user.click(cellOf(grid, '3', 'Polarity'));
+    await user.keyboard('v');
+    // Loop impedance (Zs) is folded: the pass goes on to the RCD time.
+    expect(activeCell(grid)).toBe(cellOf(grid, '1', 'Time'));
+    localStorage.clear();
+  });
+
+  it('when the findings panel key is pressed, then the panel goes narrow, then hidden, then wide', async () => {
+    localStorage.clear();
+    const { user } = renderConsole(house(), { personId: 10 });
+    const panel = () => screen.queryByRole('region', { name: /^Findings/ });
+    expect(panel()).toHaveClass('w-80');
+    await user.keyboard('{Alt>}{Shift>}F{/Shift}{/Alt}');
+    expect(panel()).toHaveClass('w-56');
+    await user.keyboard('{Alt>}{Shift>}F{/Shift}{/Alt}');
+    expect(panel()).toBeNull();
+    await user.keyboard('{Alt>}{Shift>}F{/Shift}{/Alt}');
+    expect(panel()).toHaveClass('w-80');
+    localStorage.clear();
+  });
+});
