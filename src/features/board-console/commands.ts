@@ -37,6 +37,7 @@ export interface ConsoleContext {
     /** The person's layout: folded groups and the findings panel's size. */
     layout: ConsoleLayout;
     toggleGroup(group: ColumnGroupId): void;
+    toggleDetails(): void;
     setFindingsPanel(size: FindingsPanelSize): void;
   };
 }
@@ -599,6 +600,17 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         },
       }),
     ),
+    {
+      id: 'console.fold-details',
+      label: 'Fold or unfold every circuit detail (readings only, for a laptop screen)',
+      group: groups.layout,
+      keywords: ['fold', 'details', 'laptop', 'narrow', 'readings only', 'collapse'],
+      shortcut: 'Alt+Shift+Digit0',
+      run: (ctx) => {
+        ctx.ui.toggleDetails();
+        ctx.grid.focusGrid();
+      },
+    },
     {
       id: 'console.findings-panel',
       label: 'Findings panel: wide, narrow or hidden',

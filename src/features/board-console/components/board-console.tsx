@@ -95,7 +95,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
       }),
     [personId],
   );
-  const gridColumns = useMemo(() => layoutColumns(layout.folded), [layout.folded]);
+  const gridColumns = useMemo(() => layoutColumns(layout.folded, undefined, layout.detailsFolded), [layout.folded, layout.detailsFolded]);
 
   const grid = useGridController({ sync, detail, lockedReason, commandCharacters, columns: gridColumns });
 
@@ -220,6 +220,11 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
         setLayout((current) => ({ ...current, folded: folding ? [...current.folded, group] : current.folded.filter((g) => g !== group) }));
         const label = columnGroups.find((g) => g.id === group)?.label ?? group;
         grid.say(`${label} ${folding ? 'folded to one column' : 'unfolded'}.`);
+      },
+      toggleDetails: () => {
+        const folding = !layout.detailsFolded;
+        setLayout((current) => ({ ...current, detailsFolded: folding }));
+        grid.say(folding ? 'Circuit details folded into one column beside the description; readings drawn narrow.' : 'Circuit details unfolded.');
       },
       setFindingsPanel: (size) => {
         setLayout((current) => ({ ...current, findings: size }));

@@ -20,17 +20,52 @@ export type FindingsPanelSize = 'wide' | 'narrow' | 'hidden';
 export interface ConsoleLayout {
   folded: readonly ColumnGroupId[];
   findings: FindingsPanelSize;
+  /**
+   * Every circuit detail (cable, device, RCD, AFDD, a hand-given maximum Zs, remarks) folded into
+   * one summary beside the description, and the reading columns drawn narrow: the layout for
+   * typing readings on a laptop screen.
+   */
+  detailsFolded: boolean;
 }
 
-export const defaultLayout: ConsoleLayout = { folded: [], findings: 'wide' };
+export const defaultLayout: ConsoleLayout = { folded: [], findings: 'wide', detailsFolded: false };
+
+/** Widths with the details folded: readings such as ">999", "0.44", "N/A" and a mark still fit. */
+const narrowReadingWidth = 54;
+const narrowDescriptionWidth = 140;
+const detailsSummaryWidth = 150;
 
 /** The description never folds: it stays beside the circuit number, frozen, as the row's name. */
 export const frozenColumn: ColumnKey = 'description';
 
 const summaryWidth = 112;
 
-/** The grid's columns with the folded groups each replaced by one summary column. */
-export function layoutColumns(folded: readonly ColumnGroupId[], source: readonly ColumnDef[] = allColumns): GridColumn[] {
+/**
+ * The grid's columns with the folded groups each replaced by one summary column; with the details
+ * folded, every detail column but the description in one summary after it, and narrower readings.
+ */
+export function layoutColumns(folded: readonly ColumnGroupId[], source: readonly ColumnDef[] = allColumns, detailsFolded = false): GridColumn[] {
+  if (detailsFolded) {
+    const details = source.filter((c) => c.storage === 'detail' && c.key !== frozenColumn);
+    const first = details[0];
+    const readings = layoutColumns(folded.filter((g) => source.some((c) => c.group === g && c.storage === 'reading')), source.filter((c) => c.storage === 'reading'));
+    const frozen = source.find((c) => c.key === frozenColumn);
+    const out: GridColumn[] = [];
+    if (frozen) out.push({ ...frozen, width: narrowDescriptionWidth });
+    if (first) {
+      out.push({
+        ...first,
+        label: 'Details ▸',
+        unit: undefined,
+        meaning: `Circuit details folded: ${details.map((d) => d.label).join(', ')} (unfold the details to type here)`,
+        valueKind: 'text',
+        width: detailsSummaryWidth,
+        summaryOf: details.map((d) => d.key),
+      });
+    }
+    for (const column of readings) out.push(column.summaryOf ? column : { ...column, width: Math.min(column.width, narrowReadingWidth) });
+    return out;
+  }
   const out: GridColumn[] = [];
   const done = new Set<ColumnGroupId>();
   for (const column of source) {
@@ -71,7 +106,7 @@ export function loadLayout(personId: number | null): ConsoleLayout {
     const parsed = JSON.parse(raw) as Partial<ConsoleLayout>;
     const folded = Array.isArray(parsed.folded) ? parsed.folded.filter((g): g is ColumnGroupId => columnGroups.some((c) => c.id === g)) : [];
     const findings = parsed.findings === 'narrow' || parsed.findings === 'hidden' ? parsed.findings : 'wide';
-    return { folded, findings };
+    return { folded, findings, detailsFolded: parsed.detailsFolded === true };
   } catch {
     return defaultLayout;
   }

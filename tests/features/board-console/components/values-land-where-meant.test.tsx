@@ -207,3 +207,21 @@ describe('the grid fits a laptop', () => {
     localStorage.clear();
   });
 });
+
+describe('every circuit detail folded', () => {
+  it('when Alt+Shift+0 is pressed, then the details are one summary column beside the description and every reading column stays', async () => {
+    localStorage.clear();
+    const { grid, user } = renderConsole(house(), { personId: 11 });
+    await user.keyboard('{Alt>}{Shift>}0{/Shift}{/Alt}');
+    const details = cellOf(grid, '1', 'Details ▸');
+    expect(details).toHaveTextContent(/ring .*60898 B 32 6/);
+    for (const label of ['r1', 'rn', 'r2', 'R1+R2', 'R2', 'Test V', 'L-L', 'L-E', 'Polarity', 'Zs', 'Time', 'Time 5×', 'RCD btn', 'AFDD btn']) {
+      expect(cellOf(grid, '1', label)).toBeDefined();
+    }
+    for (const label of ['Kind', 'BS (EN)', 'Max Zs given', 'RCD type', 'IΔn', 'AFDD', 'Remarks']) {
+      expect(() => cellOf(grid, '1', label)).toThrow();
+    }
+    expect(cellOf(grid, '1', 'Description')).toBeDefined();
+    localStorage.clear();
+  });
+});
