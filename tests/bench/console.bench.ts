@@ -193,7 +193,7 @@ async function nextFrame(page: Page): Promise<void> {
 async function laptopVisibility(browser: Awaited<ReturnType<typeof launchBrowser>>, baseUrl: string): Promise<void> {
   const readingColumns = columns.filter((c) => c.storage === 'reading');
   for (const findings of ['wide', 'narrow', 'hidden'] as const) {
-    const context = await browser.newContext({ viewport: { width: 1366, height: 768 } });
+    const context = await browser.newContext({ viewport: { width: 1366, height: 768 }, extraHTTPHeaders: { origin: baseUrl } });
     try {
       const signIn = await context.request.post(`${baseUrl}/api/auth/sign-in`, { data: demoTester });
       if (signIn.status() !== 200) throw new Error(`Sign-in answered ${signIn.status()}`);
@@ -242,7 +242,7 @@ async function main() {
   const server = await startDemoServer();
   const browser = await launchBrowser();
   try {
-    const context = await browser.newContext({ viewport: { width: 1600, height: 900 } });
+    const context = await browser.newContext({ viewport: { width: 1600, height: 900 }, extraHTTPHeaders: { origin: server.url } });
     const signIn = await context.request.post(`${server.url}/api/auth/sign-in`, { data: demoTester });
     if (signIn.status() !== 200) throw new Error(`Sign-in answered ${signIn.status()}`);
     const { boards } = (await (await context.request.get(`${server.url}/api/boards`)).json()) as { boards: Array<{ id: number; reference: string; circuitCount: number }> };

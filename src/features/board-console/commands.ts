@@ -38,6 +38,8 @@ export interface ConsoleContext {
     layout: ConsoleLayout;
     toggleGroup(group: ColumnGroupId): void;
     toggleDetails(): void;
+    /** Opens the board's own details for editing in the header. */
+    editBoard(): void;
     setFindingsPanel(size: FindingsPanelSize): void;
   };
 }
@@ -600,6 +602,15 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         },
       }),
     ),
+    {
+      id: 'console.edit-board',
+      label: 'Edit the board’s details (Zdb, Ipf, location, instruments…)',
+      group: groups.board,
+      keywords: ['board', 'zdb', 'ipf', 'instruments', 'location', 'supplied from', 'polarity confirmed', 'header'],
+      shortcut: 'Alt+Shift+KeyB',
+      when: (ctx) => lockedReason(ctx) ?? true,
+      run: (ctx) => ctx.ui.editBoard(),
+    },
     {
       id: 'console.fold-details',
       label: 'Fold or unfold every circuit detail (readings only, for a laptop screen)',

@@ -17,6 +17,7 @@ import type { CellChange } from '../grid/undo-stack.ts';
 import { QuickEntryLine } from '../quick-entry/quick-entry-line.tsx';
 import { quickEntryWordsSection, type QuickEntry, type QuickEntryCircuit } from '../quick-entry/parse-quick-entry.ts';
 import type { BoardSync, Conflict } from '../sync/types.ts';
+import { BoardDetailsForm } from './board-details-form.tsx';
 import { BoardGrid } from './board-grid.tsx';
 import { ConflictList } from './conflict-list.tsx';
 import { ConsoleHeader } from './console-header.tsx';
@@ -102,6 +103,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   const [paletteOpen, setPaletteOpen] = useState(false);
   const [paletteCommand, setPaletteCommand] = useState<string | undefined>(undefined);
   const [keysOpen, setKeysOpen] = useState(false);
+  const [editingBoard, setEditingBoard] = useState(false);
   const [quickEntryNote, setQuickEntryNote] = useState<string | undefined>(undefined);
   const quickEntryRef = useRef<HTMLInputElement | null>(null);
   const findingsRef = useRef<HTMLUListElement | null>(null);
@@ -221,6 +223,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
         const label = columnGroups.find((g) => g.id === group)?.label ?? group;
         grid.say(`${label} ${folding ? 'folded to one column' : 'unfolded'}.`);
       },
+      editBoard: () => setEditingBoard(true),
       toggleDetails: () => {
         const folding = !layout.detailsFolded;
         setLayout((current) => ({ ...current, detailsFolded: folding }));
@@ -239,7 +242,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   }, []);
 
   useCommandKeys(registry, ctx, {
-    enabled: !paletteOpen && !keysOpen,
+    enabled: !paletteOpen && !keysOpen && !editingBoard,
     onNeedsArgs: (command) => openPalette(command.id),
     onUnavailable: (command, reason) => ctxRef.current?.grid.say(`${command.label}: ${reason}.`, 'error'),
     onError: onCommandError,
@@ -327,6 +330,16 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   return (
     <div className="flex h-full min-h-0 flex-col">
       <ConsoleHeader board={board} site={detail.site} job={detail.job} present={sync.present} status={sync.status} />
+      {editingBoard && (
+        <BoardDetailsForm
+          board={board}
+          onClose={(message) => {
+            setEditingBoard(false);
+            if (message) ctxRef.current?.grid.say(message);
+            ctxRef.current?.grid.focusGrid();
+          }}
+        />
+      )}
       {lockedReason && (
         <p role="note" className="shrink-0 border-b border-line bg-locked-soft px-3 py-1 text-sm text-locked">
           <span aria-hidden="true">▣ </span>
