@@ -192,6 +192,8 @@ async function nextFrame(page: Page): Promise<void> {
  */
 async function laptopVisibility(browser: Awaited<ReturnType<typeof launchBrowser>>, baseUrl: string): Promise<void> {
   const readingColumns = columns.filter((c) => c.storage === 'reading');
+  // 'wide' starts from the default layout and presses Alt+Shift+0 (which narrows a wide findings
+  // panel with it); the others start with the details folded and the panel as named.
   for (const findings of ['wide', 'narrow', 'hidden'] as const) {
     const context = await browser.newContext({ viewport: { width: 1366, height: 768 }, extraHTTPHeaders: { origin: baseUrl } });
     try {
@@ -204,10 +206,17 @@ async function laptopVisibility(browser: Awaited<ReturnType<typeof launchBrowser
       const page = await context.newPage();
       await page.addInitScript(
         ([key, value]) => localStorage.setItem(key!, value!),
-        [`boardwalk.console.layout.${me.id}`, JSON.stringify({ folded: [], findings, detailsFolded: true })],
+        [`boardwalk.console.layout.${me.id}`, JSON.stringify({ folded: [], findings, detailsFolded: findings !== 'wide' })],
       );
       await page.goto(`${baseUrl}/boards/${board.id}`);
       await page.getByRole('grid').waitFor();
+      await page.waitForFunction(() => document.activeElement?.getAttribute('role') === 'grid');
+      if (findings === 'wide') await page.keyboard.press('Alt+Shift+Digit0');
+      await page.waitForFunction(() => document.querySelector('[role="columnheader"][aria-label="Details ▸"]') !== null);
+      const panel = await page.evaluate(() => {
+        const section = document.querySelector('section[aria-labelledby="findings-heading"]');
+        return section ? `${Math.round(section.getBoundingClientRect().width)} px` : 'hidden';
+      });
       await page.waitForFunction(() => document.querySelector('[role="grid"] [role="gridcell"]') !== null);
       const result = await page.evaluate((keys: string[]) => {
         const grid = document.querySelector<HTMLElement>('[role="grid"]')!;
@@ -227,7 +236,7 @@ async function laptopVisibility(browser: Awaited<ReturnType<typeof launchBrowser
       const seen = readingColumns.length - result.hidden.length;
       const all = result.hidden.length === 0 && result.scrollLeft === 0;
       console.log(
-        `Laptop 1366×768, board ${board.reference} (single-phase), circuit details folded (Alt+Shift+0), findings panel ${findings}: ${all ? 'every' : 'NOT every'} reading column visible without horizontal scrolling (${seen} of ${readingColumns.length}${
+        `Laptop 1366×768, board ${board.reference} (single-phase), circuit details folded (${findings === 'wide' ? 'Alt+Shift+0 from the default layout' : 'Alt+Shift+0'}), findings panel ${findings === 'wide' ? `was wide, now ${panel}` : `${findings} (${panel})`}: ${all ? 'every' : 'NOT every'} reading column visible without horizontal scrolling (${seen} of ${readingColumns.length}${
           result.hidden.length > 0 ? `; off screen: ${result.hidden.map((k) => columns.find((c) => c.key === k)!.label).join(', ')}` : ''
         }; grid ${result.gridWidth} px wide, content ${result.scrollWidth} px)`,
       );

@@ -438,9 +438,24 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         const number = (args.number ?? '').trim();
         const free = numberFree(ctx.detail, number);
         if (free !== true) throw new Error(free);
-        const circuit = await ctx.sync.insertCircuit(activeCircuit(ctx)?.id ?? null, { number });
+        // A new way in a board is most often protected like its neighbour: it starts with the device
+        // (and RCD) of the circuit above, which the typist changes if it differs.
+        const above = activeCircuit(ctx);
+        const device: Partial<CircuitFields> = above
+          ? {
+              deviceStandard: above.deviceStandard,
+              deviceType: above.deviceType,
+              ratingA: above.ratingA,
+              breakingKa: above.breakingKa,
+              rcdType: above.rcdType,
+              rcdRatedResidualMa: above.rcdRatedResidualMa,
+            }
+          : {};
+        const circuit = await ctx.sync.insertCircuit(above?.id ?? null, { ...device, number });
         ctx.grid.moveTo({ circuitId: circuit.id, column: 'description' });
-        ctx.grid.say(`Circuit ${circuit.number} inserted.`);
+        ctx.grid.say(
+          `Circuit ${circuit.number} inserted${above && above.deviceStandard ? ` with the device of circuit ${above.number} (${[above.deviceStandard, above.deviceType, above.ratingA === null ? '' : `${above.ratingA} A`].filter(Boolean).join(' ')})` : ''}.`,
+        );
         ctx.grid.focusGrid();
       },
     },

@@ -226,8 +226,15 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
       editBoard: () => setEditingBoard(true),
       toggleDetails: () => {
         const folding = !layout.detailsFolded;
-        setLayout((current) => ({ ...current, detailsFolded: folding }));
-        grid.say(folding ? 'Circuit details folded into one column beside the description; readings drawn narrow.' : 'Circuit details unfolded.');
+        // Folding the details is the laptop layout: a wide findings panel goes narrow with it, so
+        // every reading column fits beside it at 1366 px.
+        const narrowed = folding && layout.findings === 'wide';
+        setLayout((current) => ({ ...current, detailsFolded: folding, findings: narrowed ? 'narrow' : current.findings }));
+        grid.say(
+          folding
+            ? `Circuit details folded into one column beside the description; readings drawn narrow${narrowed ? '; findings panel narrow' : ''}.`
+            : 'Circuit details unfolded.',
+        );
       },
       setFindingsPanel: (size) => {
         setLayout((current) => ({ ...current, findings: size }));

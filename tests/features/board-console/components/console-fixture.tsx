@@ -91,6 +91,8 @@ export interface ConsoleHarnessOptions {
 export function renderConsole(initial: BoardDetail, options: ConsoleHarnessOptions = {}) {
   const calls: SyncCall[] = [];
   const resolved: Array<{ editId: string; choice: string }> = [];
+  /** Circuits the console asked to insert: after which circuit, with which fields. */
+  const inserted: Array<{ afterId: number | null; fields: Partial<CircuitFields> }> = [];
   const remote: { update: (change: (detail: BoardDetail) => BoardDetail) => void } = { update: () => {} };
 
   function Harness() {
@@ -120,8 +122,14 @@ export function renderConsole(initial: BoardDetail, options: ConsoleHarnessOptio
         resolveConflict(editId, choice) {
           resolved.push({ editId, choice });
         },
-        insertCircuit: async () => {
-          throw new Error('not in this test');
+        insertCircuit: async (afterId, fields = {}) => {
+          const made = circuit(900 + inserted.length, fields.number ?? '?', {}, fields);
+          inserted.push({ afterId, fields });
+          setDetail((d) => {
+            const at = afterId === null ? 0 : d.circuits.findIndex((c) => c.id === afterId) + 1;
+            return { ...d, circuits: [...d.circuits.slice(0, at), made, ...d.circuits.slice(at)] };
+          });
+          return made;
         },
         removeCircuit: async () => {},
         lockBoard: async () => {},
@@ -137,7 +145,7 @@ export function renderConsole(initial: BoardDetail, options: ConsoleHarnessOptio
   const grid = result.getByRole('grid');
   /** Applies a change as if it came from another typist through the changes feed. */
   const remoteUpdate = (change: (detail: BoardDetail) => BoardDetail) => act(() => remote.update(change));
-  return { ...result, user, calls, resolved, grid, remoteUpdate };
+  return { ...result, user, calls, resolved, inserted, grid, remoteUpdate };
 }
 
 /** The gridcell of a circuit (by its number) and column (by its header label). */

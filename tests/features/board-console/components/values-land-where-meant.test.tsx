@@ -225,3 +225,20 @@ describe('every circuit detail folded', () => {
     localStorage.clear();
   });
 });
+
+describe('inserting a circuit', () => {
+  it('when a circuit is inserted below another, then it starts with the device (and RCD) of the circuit above', async () => {
+    const { grid, user, inserted } = renderConsole(house());
+    await user.click(cellOf(grid, '2', 'Zs'));
+    await user.keyboard('{Control>}k{/Control}');
+    await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('insert a circuit{Enter}');
+    await user.keyboard('2a{Enter}');
+    await waitFor(() => expect(inserted).toHaveLength(1));
+    expect(inserted[0]).toEqual({
+      afterId: 42,
+      fields: { number: '2a', deviceStandard: '60898', deviceType: 'B', ratingA: 6, breakingKa: 6, rcdType: 'A', rcdRatedResidualMa: 30 },
+    });
+    await waitFor(() => expect(screen.getByRole('status')).toHaveTextContent('Circuit 2a inserted with the device of circuit 2 (60898 B 6 A)'));
+  });
+});
