@@ -50,21 +50,42 @@ const structuralActions = new Set(['circuit-created', 'circuit-removed', 'reorde
 export class BoardStates {
   private readonly states = new Map<number, BoardState>();
   private readonly queues = new Map<number, Promise<unknown>>();
+  private readonly waiting = new Map<number, { reload: number[]; promise: Promise<BoardState | undefined> }>();
 
   constructor(
     private readonly db: DB,
     private readonly maxBoards = 64,
   ) {}
 
-  /** The board brought up to date, or undefined when it does not exist. */
+  /**
+   * The board brought up to date, or undefined when it does not exist. Calls that arrive while an
+   * update of the same board is waiting to start share it (it reads the history after all of their
+   * changes were committed), so eight typists saving at once cost one update and one check.
+   */
   current(boardId: number, options: { reloadCircuits?: readonly number[] } = {}): Promise<BoardState | undefined> {
+    const reload = options.reloadCircuits ?? [];
+    const waiting = this.waiting.get(boardId);
+    if (waiting) {
+      waiting.reload.push(...reload);
+      return waiting.promise;
+    }
     const previous = this.queues.get(boardId) ?? Promise.resolve();
-    const next = previous.catch(() => undefined).then(() => this.refresh(boardId, options.reloadCircuits ?? []));
-    this.queues.set(boardId, next);
-    void next.finally(() => {
-      if (this.queues.get(boardId) === next) this.queues.delete(boardId);
-    }).catch(() => undefined);
-    return next;
+    const slot: { reload: number[]; promise: Promise<BoardState | undefined> } = { reload: [...reload], promise: Promise.resolve(undefined) };
+    slot.promise = previous
+      .catch(() => undefined)
+      .then(() => {
+        // Started: later calls wait for the next update, which will see their changes.
+        if (this.waiting.get(boardId) === slot) this.waiting.delete(boardId);
+        return this.refresh(boardId, slot.reload);
+      });
+    this.waiting.set(boardId, slot);
+    this.queues.set(boardId, slot.promise);
+    void slot.promise
+      .finally(() => {
+        if (this.queues.get(boardId) === slot.promise) this.queues.delete(boardId);
+      })
+      .catch(() => undefined);
+    return slot.promise;
   }
 
   /** Every finding of the board (the checker's and any stored value that did not fit). */

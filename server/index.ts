@@ -7,9 +7,9 @@ import { migrateToLatest } from './db/migrate.ts';
 import { demoAccounts, demoPassword } from './db/seed/demo-scenario.ts';
 import { databaseHasUsers, seedDemo } from './db/seed/seed-demo.ts';
 import { findUserByEmail } from './db/users.ts';
+import { startLocalMailServer, type LocalMailServer } from './mail/local-mail-server.ts';
 import { warmUpFonts } from './pdf/fonts.ts';
 import { warmUpPdfRenderer } from './pdf/render-job-pdf.ts';
-import { startLocalMailServer, type LocalMailServer } from './mail/local-mail-server.ts';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const port = Number(process.env.PORT ?? 3000);

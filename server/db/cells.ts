@@ -33,9 +33,14 @@ export async function writeCell(
     baseVersion: number;
     userId: number;
     how: string;
+    /**
+     * The cell as it is now, when the caller has already read it in the same transaction (a batch
+     * reads a board's cells in one query); `null` for a cell never written. Omitted: read here.
+     */
+    current?: CellRow | null;
   },
 ): Promise<CellWriteResult> {
-  const current = await findCellRow(db, input.circuitId, input.column);
+  const current = input.current !== undefined ? (input.current ?? undefined) : await findCellRow(db, input.circuitId, input.column);
   const currentVersion = current?.version ?? 0;
   if (current && current.text === input.text && (current.reason ?? null) === input.reason) {
     return { ok: true, cell: current, cursor: 0 };

@@ -76,9 +76,19 @@ export function importRoutes(db: DB): Router {
       if (stray) throw new HttpError('bad_request', `Circuit ${stray.circuitId} is not on board ${board.reference}; nothing was imported.`);
       const conflicts: Array<{ circuitId: number; circuit: string; column: string; current: string }> = [];
       let count = 0;
+      // The board's cells in one query, inside the transaction (SQLite's write lock is held from the
+      // first write on, and this read sees the same state the writes will).
+      const existing = await trx
+        .selectFrom('cells')
+        .innerJoin('circuits', 'circuits.id', 'cells.circuit_id')
+        .selectAll('cells')
+        .where('circuits.board_id', '=', boardId)
+        .execute();
+      const cellsByKey = new Map(existing.map((c) => [`${c.circuit_id}:${c.column_key}`, c]));
       for (const w of body.writes) {
         const result = await writeCell(trx, {
           boardId, circuitId: w.circuitId, column: w.column, text: w.text.trim(), reason: w.reason ?? null, baseVersion: w.version, userId: user.id, how: 'imported',
+          current: cellsByKey.get(`${w.circuitId}:${w.column}`) ?? null,
         });
         if (!result.ok) conflicts.push({ circuitId: w.circuitId, circuit: numberById.get(w.circuitId)!, column: w.column, current: result.current?.text ?? '' });
         else if (result.cursor) count += 1;

@@ -56,7 +56,9 @@ export function normaliseImported(column: ReadingKey, raw: string, options: { de
     const w = word.trim().toLowerCase();
     let factor = 1;
     if (w !== '') {
-      const f = unitFactors[unit]?.[w];
+      // "mΩ" is milli, "MΩ" mega: in an ohms column a capital M does not fit (a megohm Zs is a slip).
+      const megaInOhms = unit === 'Ω' && word.trim().startsWith('M');
+      const f = megaInOhms ? undefined : unitFactors[unit]?.[w];
       if (f === undefined) {
         return { text: t, note: `the unit "${word.trim()}" does not fit ${columnByKey[column].label} (${unit}); kept as written` };
       }

@@ -27,6 +27,18 @@ export function isMissingReading(finding: Pick<Finding, 'code' | 'severity'>): b
 }
 
 /**
+ * Job findings about a required part of the record, which the gate's own record reasons already
+ * name: they are put right in the record, never accepted, and not listed twice.
+ */
+const requiredPartCodes: ReadonlySet<string> = new Set(['observation-without-code', 'limitation-without-reason', 'agreed-limitation-without-whom']);
+
+/**
+ * Job findings that say the summary contradicts the observations: whatever their severity, they
+ * stop approval (an overall assessment that contradicts the observations is never issued).
+ */
+const contradictionCodes: ReadonlySet<string> = new Set(['summary-says-satisfactory']);
+
+/**
  * Whether a reviewer may accept a finding with a reason, or why not. Only error findings about
  * values can be accepted: a reading not yet recorded is taken, and a LIM is given its reason —
  * neither is put right by a reviewer's note (a schedule is never issued with a LIM that has no reason).
@@ -34,6 +46,8 @@ export function isMissingReading(finding: Pick<Finding, 'code' | 'severity'>): b
 export function acceptability(finding: Pick<Finding, 'code' | 'severity'>): true | string {
   if (isMissingReading(finding)) return 'A reading not yet recorded cannot be accepted: record it, or write LIM with its reason.';
   if (finding.code === 'lim-without-reason') return 'A LIM without a reason cannot be accepted: record why the test could not be done.';
+  if (requiredPartCodes.has(finding.code)) return 'A required part of the record cannot be accepted: fill it in on the job screen.';
+  if (contradictionCodes.has(finding.code)) return 'The summary must agree with the observations: reword it on the job screen.';
   if (finding.severity !== 'error') return `Only error findings need accepting; this one is a ${finding.severity}.`;
   return true;
 }
@@ -234,8 +248,9 @@ function recordReasons(kind: 'EIC' | 'EICR', record: JobSectionData): string[] {
 /**
  * Why this job cannot be approved, in words (empty: it can be): a board not locked, a missing
  * part of the record, an inspection item left blank, an observation without its code, an overall
- * assessment the observations contradict, or a job finding in error that is neither resolved nor
- * accepted.
+ * assessment the observations contradict (an inspection item coded C1 or C2 under a satisfactory
+ * assessment, or a summary that calls an unsatisfactory installation satisfactory), or a job
+ * finding in error that is neither resolved nor accepted.
  */
 export function jobApprovalReasons(input: JobGateInput): string[] {
   const reasons: string[] = [];
@@ -245,7 +260,9 @@ export function jobApprovalReasons(input: JobGateInput): string[] {
   }
   reasons.push(...recordReasons(input.kind, input.record));
   for (const f of input.jobFindings) {
-    if (f.severity === 'error' && !input.acceptedKeys.has(gateFindingKey(null, f))) {
+    if (requiredPartCodes.has(f.code)) continue; // said above, in the record's own words
+    if (contradictionCodes.has(f.code)) reasons.push(`Summary: ${f.message}`);
+    else if (f.severity === 'error' && !input.acceptedKeys.has(gateFindingKey(null, f))) {
       reasons.push(`${f.message} (an error, neither resolved nor accepted by a reviewer)`);
     }
   }

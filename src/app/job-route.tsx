@@ -28,10 +28,12 @@ function JobPanels() {
   if (!me || !Number.isSafeInteger(jobId) || jobId <= 0) return null;
   return (
     <>
-      <JobStatePanel jobId={jobId} role={me.role} />
       <SigningPanel jobId={jobId} person={{ role: me.role, name: me.name }} />
       <IssuePanel jobId={jobId} role={me.role} />
       <SendPanel jobId={jobId} personRole={me.role} />
+      {/* Last: its gate list arrives after the others and changes length as the record is
+          filled, so above them it would move the signature box under a moving pen. */}
+      <JobStatePanel jobId={jobId} role={me.role} />
     </>
   );
 }

@@ -8,6 +8,8 @@ export interface FormDialogProps {
   title: string;
   onClose: () => void;
   children: ReactNode;
+  /** A wide dialog (a table such as an import's preview) instead of a form's width. */
+  wide?: boolean;
 }
 
 /**
@@ -15,7 +17,7 @@ export interface FormDialogProps {
  * Esc closes it and the focus goes back to where it was. Keys pressed inside do not reach the
  * page's shortcuts.
  */
-export function FormDialog({ title, onClose, children }: FormDialogProps) {
+export function FormDialog({ title, onClose, children, wide = false }: FormDialogProps) {
   const dialogRef = useRef<HTMLDivElement>(null);
   const returnFocus = useReturnFocus(dialogRef);
   const titleId = useId();
@@ -68,7 +70,7 @@ export function FormDialog({ title, onClose, children }: FormDialogProps) {
         aria-labelledby={titleId}
         tabIndex={-1}
         onKeyDown={onKeyDown}
-        className="w-full max-w-xl rounded-md border border-line-strong bg-surface shadow-xl focus:outline-none"
+        className={`w-full ${wide ? 'max-w-6xl' : 'max-w-xl'} rounded-md border border-line-strong bg-surface shadow-xl focus:outline-none`}
       >
         <div className="flex items-center justify-between border-b border-line px-4 py-2">
           <h2 id={titleId} className="font-semibold">

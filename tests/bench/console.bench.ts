@@ -251,8 +251,8 @@ async function main() {
   const server = await startDemoServer();
   const browser = await launchBrowser();
   try {
-    const context = await browser.newContext({ viewport: { width: 1600, height: 900 }, extraHTTPHeaders: { origin: server.url } });
-    const signIn = await context.request.post(`${server.url}/api/auth/sign-in`, { data: demoTester });
+    const context = await browser.newContext({ viewport: { width: 1600, height: 900 } });
+    const signIn = await context.request.post(`${server.url}/api/auth/sign-in`, { data: demoTester, headers: { origin: server.url } });
     if (signIn.status() !== 200) throw new Error(`Sign-in answered ${signIn.status()}`);
     const { boards } = (await (await context.request.get(`${server.url}/api/boards`)).json()) as { boards: Array<{ id: number; reference: string; circuitCount: number }> };
     const board = [...boards].sort((a, b) => b.circuitCount - a.circuitCount)[0];
@@ -266,7 +266,7 @@ async function main() {
       for (const circuit of seeded) {
         const cell = circuit.cells[column];
         if (!cell || cell.text === '') continue;
-        const res = await context.request.put(`${server.url}/api/boards/${board.id}/circuits/${circuit.id}/cells/${column}`, { data: { text: '', version: cell.version } });
+        const res = await context.request.put(`${server.url}/api/boards/${board.id}/circuits/${circuit.id}/cells/${column}`, { data: { text: '', version: cell.version }, headers: { origin: server.url } });
         if (res.status() !== 200) throw new Error(`Emptying ${circuit.number} ${column} answered ${res.status()}`);
       }
     }

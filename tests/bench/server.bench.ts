@@ -28,6 +28,7 @@ import { cellHistory } from '../../server/db/history.ts';
 import { migrateToLatest } from '../../server/db/migrate.ts';
 import { demoAccounts, demoPassword } from '../../server/db/seed/demo-scenario.ts';
 import { seedDemo } from '../../server/db/seed/seed-demo.ts';
+import { addRepeatedBoard } from '../helpers/big-board.ts';
 
 const TYPISTS = 8;
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 4);
@@ -40,33 +41,12 @@ const mark = (ok: boolean) => (ok ? 'pass' : 'MISS');
 // ---------- database ----------
 
 async function prepareDatabase(file: string): Promise<{ demoBoardId: number; bigBoardId: number }> {
-  const { db, sqlite } = openDatabase(file);
+  const { db } = openDatabase(file);
   await migrateToLatest(db);
   await seedDemo(db);
-  const counts = await db.selectFrom('circuits').select(['board_id', (eb) => eb.fn.countAll<number>().as('n')]).groupBy('board_id').orderBy('n', 'desc').execute();
-  const demoBoardId = counts[0]!.board_id;
-  const demo = await db.selectFrom('boards').selectAll().where('id', '=', demoBoardId).executeTakeFirstOrThrow();
-  const { id: bigBoardId } = await db
-    .insertInto('boards')
-    .values({ ...demo, id: undefined, reference: 'DB-300', state: 'open', locked_by: null, locked_at: null } as never)
-    .returning('id')
-    .executeTakeFirstOrThrow();
-  const source = await db.selectFrom('circuits').selectAll().where('board_id', '=', demoBoardId).orderBy('position').execute();
-  const cells = await db.selectFrom('cells').innerJoin('circuits', 'circuits.id', 'cells.circuit_id').selectAll('cells').where('circuits.board_id', '=', demoBoardId).execute();
-  sqlite.transaction(() => {
-    const insertCircuit = sqlite.prepare(
-      `insert into circuits (${Object.keys(source[0]!).filter((k) => k !== 'id').join(', ')}) values (${Object.keys(source[0]!).filter((k) => k !== 'id').map((k) => `@${k}`).join(', ')})`,
-    );
-    const insertCell = sqlite.prepare('insert into cells (circuit_id, column_key, text, reason, version, updated_by, updated_at) values (@circuit_id, @column_key, @text, @reason, @version, @updated_by, @updated_at)');
-    for (let i = 0; i < 300; i++) {
-      const from = source[i % source.length]!;
-      const { id: _id, ...rest } = from;
-      const info = insertCircuit.run({ ...rest, board_id: bigBoardId, position: i + 1, number: String(i + 1), spur_ring_id: null });
-      for (const cell of cells.filter((c) => c.circuit_id === from.id)) insertCell.run({ ...cell, circuit_id: Number(info.lastInsertRowid) });
-    }
-  })();
+  const { boardId, fromBoardId } = await addRepeatedBoard(db, 300);
   await db.destroy();
-  return { demoBoardId, bigBoardId };
+  return { demoBoardId: fromBoardId, bigBoardId: boardId };
 }
 
 // ---------- child server ----------

@@ -31,7 +31,7 @@ async function jumpToColumn(page: Page, label: string): Promise<void> {
 describe('clipboard', () => {
   it('when blocks are pasted from a spreadsheet and ranges copied, then the cells and the clipboard hold tab-separated text', async () => {
     const context = await env.browser.newContext({ permissions: ['clipboard-read', 'clipboard-write'] });
-    expect((await context.request.post(`${env.server.url}/api/auth/sign-in`, { data: demoTester })).status()).toBe(200);
+    expect((await context.request.post(`${env.server.url}/api/auth/sign-in`, { data: demoTester, headers: { origin: env.server.url } })).status()).toBe(200);
     const page = await context.newPage();
     const boards = (await (await context.request.get(`${env.server.url}/api/boards`)).json()) as { boards: { id: number; phases: number }[] };
     const boardId = boards.boards.find((b) => b.phases === 3)!.id;

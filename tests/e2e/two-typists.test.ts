@@ -14,7 +14,7 @@ const env = useDemoServerAndBrowser();
 
 async function signedInContext(account: { email: string; password: string }): Promise<BrowserContext> {
   const context = await env.browser.newContext();
-  const res = await context.request.post(`${env.server.url}/api/auth/sign-in`, { data: account });
+  const res = await context.request.post(`${env.server.url}/api/auth/sign-in`, { data: account, headers: { origin: env.server.url } });
   expect(res.status()).toBe(200);
   return context;
 }

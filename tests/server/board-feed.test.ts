@@ -58,4 +58,16 @@ describe('GET /changes', () => {
     expect(after.board.zdbOhm).toBe(0.31);
     expect(after.cursor).toBeGreaterThan(before.cursor);
   });
+
+  it('when several typists save at the same moment, then each answer carries the findings of its own reading', async () => {
+    // A B6 type B breaker: maximum Zs 7.28 Ω at 0.4 s (BS 7671:2018+A2 Table 41.3 [memory]); 9.99 Ω is over on any reading of it.
+    const agents = await Promise.all([t.signIn('tester'), t.signIn('tester2'), t.signIn('reviewer')]);
+    const answers = await Promise.all(
+      [ids[1]!, ids[2]!].map((id, i) => agents[i]!.put(`/api/boards/${t.ids.board}/circuits/${id}/cells/zs`).send({ text: '9.99', version: 0 })),
+    );
+    for (const [i, answer] of answers.entries()) {
+      expect(answer.status).toBe(200);
+      expect(answer.body.findings.filter((f: { code: string }) => f.code === 'zs-over-max').map((f: { circuitId: number }) => f.circuitId)).toEqual([[ids[1], ids[2]][i]]);
+    }
+  });
 });

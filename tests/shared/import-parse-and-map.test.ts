@@ -102,10 +102,10 @@ describe('reading and mapping generated instrument-like files', () => {
     expect(normaliseImported(column, raw, { decimalComma }).text).toBe(stored);
   });
 
-  it('when a unit does not fit the column, then the text is kept as written so the checker flags it', () => {
-    const value = normaliseImported('zs', '28 ms', { decimalComma: false });
-    expect(value.text).toBe('28 ms');
-    expect(value.note).toMatch(/does not fit Zs/);
+  it.each([['zs', '28 ms'], ['zs', '0.4 MΩ'], ['rcdTimeMs', '0.4 Ω']] as const)('when %s holds "%s", a unit that does not fit, then the text is kept as written so the checker flags it', (column, raw) => {
+    const value = normaliseImported(column, raw, { decimalComma: false });
+    expect(value.text).toBe(raw);
+    expect(value.note).toMatch(/does not fit/);
   });
 
   it('when the header writes lower-case r1, rn, r2 and upper-case R2, then the ring ends and the long-lead R2 are told apart (common practice)', () => {

@@ -41,6 +41,13 @@ export interface ConsoleContext {
     /** Opens the board's own details for editing in the header. */
     editBoard(): void;
     setFindingsPanel(size: FindingsPanelSize): void;
+    /** Opens the import of an instrument's readings file. */
+    openImport(): void;
+    /** Shows the photos of the paper notes beside the grid and gives them the focus. */
+    showPhotos(): void;
+    hidePhotos(): void;
+    /** Whether the photos are shown. */
+    photosShown: boolean;
   };
 }
 
@@ -730,6 +737,32 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
 
     // Help
+    {
+      id: 'console.import-file',
+      label: 'Import readings from a file',
+      group: groups.board,
+      keywords: ['instrument', 'csv', 'download', 'tester file', 'mapping'],
+      shortcut: 'Alt+Shift+KeyI',
+      when: (ctx) => lockedReason(ctx) ?? true,
+      run: (ctx) => ctx.ui.openImport(),
+    },
+    {
+      id: 'console.show-photos',
+      label: 'Show photos of the notes',
+      group: groups.board,
+      keywords: ['paper', 'picture', 'image', 'sheet', 'attach photo'],
+      shortcut: 'Alt+Shift+KeyP',
+      when: () => true,
+      run: (ctx) => ctx.ui.showPhotos(),
+    },
+    {
+      id: 'console.hide-photos',
+      label: 'Hide the photos of the notes',
+      group: groups.board,
+      keywords: ['close photo', 'paper'],
+      when: (ctx) => (ctx.ui.photosShown ? true : 'The photos are not shown'),
+      run: (ctx) => ctx.ui.hidePhotos(),
+    },
     {
       id: 'console.palette',
       label: 'Open the command palette',

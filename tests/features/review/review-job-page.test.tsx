@@ -129,6 +129,25 @@ describe('review screen: one job', () => {
     expect(await screen.findByRole('status')).toHaveTextContent('Job KV-EICR-0042 approved.');
   });
 
+  it('when a board is locked, then the reviewer can send it back with a reason (unlock); a short reason is refused at the field', async () => {
+    const locked = reviewJob();
+    locked.boards[0]!.board = { ...locked.boards[0]!.board, state: 'locked', lockedBy: { id: 3, name: 'Rhea Reviewer' } };
+    const calls = stubApi({
+      'GET /api/review/jobs/9': () => json(200, locked),
+      'POST /api/boards/5/unlock': () => json(200, { board: { ...locked.boards[0]!.board, state: 'open', lockedBy: null } }),
+    });
+    const { user } = renderPage();
+    const reason = await screen.findByRole('textbox', { name: /Send board CU1 back \(unlock it\)/ });
+    expect(screen.queryByRole('button', { name: 'Lock board CU1' })).toBeNull();
+    await user.click(reason);
+    await user.keyboard('no{Enter}');
+    expect(reason).toHaveAccessibleDescription(/at least 5 characters/);
+    await user.clear(reason);
+    await user.keyboard('Circuit 3 to be tested again after the repair{Enter}');
+    await waitFor(() => expect(calls.find((c) => c.method === 'POST')).toMatchObject({ path: '/api/boards/5/unlock', body: { reason: 'Circuit 3 to be tested again after the repair' } }));
+    expect(await screen.findByRole('status')).toHaveTextContent('Board CU1 unlocked and sent back to the testers.');
+  });
+
   it('when a tester somehow opens it, then no accept, lock, approve or send-back control is offered', async () => {
     stubApi({ 'GET /api/review/jobs/9': () => json(200, reviewJob()) });
     const { user } = renderPage('tester');

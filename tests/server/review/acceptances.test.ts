@@ -122,8 +122,9 @@ describe('GET /api/review/queue', () => {
     expect(res.body.jobs.some((j: { job: { id: number } }) => j.job.id === third)).toBe(false);
     const t1 = res.body.jobs[1];
     expect(t1.submitted).toMatchObject({ by: { name: 'Tom Tester' }, note: 'Second in' });
-    // One open error (Zs over max on circuit 1); no reading missing on the complete board.
-    expect(t1.counts).toMatchObject({ errors: 1, accepted: 0, missingReadings: 0 });
+    // Two open errors: Zs over its maximum on circuit 1, and the job rule asking for the C1 or C2
+    // observation such a Zs needs on a condition report; no reading missing on the complete board.
+    expect(t1.counts).toMatchObject({ errors: 2, accepted: 0, missingReadings: 0 });
     expect(t1).toMatchObject({ boardCount: 1, lockedBoards: 0 });
   });
 });

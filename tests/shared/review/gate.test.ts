@@ -179,6 +179,29 @@ describe('jobApprovalReasons', () => {
   });
 });
 
+describe('job findings in the job gate', () => {
+  const lockedBoard: Array<{ id: number; reference: string; state: 'open' | 'locked' }> = [{ id: 7, reference: 'DB1', state: 'locked' }];
+  it('when the checker flags a required part, then it is said once (in the record\'s words) and cannot be accepted', () => {
+    const record = completeEicrRecord();
+    record.observations['o-2'] = { number: 2, text: 'Cracked socket front', location: 'Kitchen', code: null, boardId: null, circuitId: null, inspectionItem: null };
+    const jobFindings = checkJob({ kind: 'EICR', record, boards: [] });
+    const uncoded = jobFindings.find((f) => f.code === 'observation-without-code');
+    expect(uncoded).toBeDefined();
+    expect(acceptability(uncoded!)).toMatch(/cannot be accepted/);
+    expect(jobApprovalReasons({ kind: 'EICR', record, boards: lockedBoard, jobFindings, acceptedKeys: new Set() })).toEqual(['Observations: 2 has no code (C1, C2, C3 or FI).']);
+  });
+
+  it('when the general condition calls an unsatisfactory installation satisfactory, then approval is stopped (any C2 makes it unsatisfactory: BS 7671 Appendix 6)', () => {
+    const record = completeEicrRecord();
+    record.observations['o-1'] = { ...record.observations['o-1']!, code: 'C2' };
+    record.inspections['4.8'] = 'C2';
+    record.summary = { ...record.summary, generalCondition: 'Satisfactory overall for its age.' };
+    const jobFindings = checkJob({ kind: 'EICR', record, boards: [] });
+    const reasons = jobApprovalReasons({ kind: 'EICR', record, boards: lockedBoard, jobFindings, acceptedKeys: new Set() });
+    expect(reasons).toEqual([expect.stringMatching(/^Summary: The general condition calls the installation satisfactory/)]);
+  });
+});
+
 describe('jobTransition', () => {
   it('checks the role before the state, and says both in words', () => {
     expect(jobTransition('entering', 'approve', 'tester')).toMatchObject({ ok: false, status: 403 });

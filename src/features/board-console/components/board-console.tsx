@@ -1,4 +1,5 @@
-import { useCallback, useDeferredValue, useMemo, useRef, useState, type KeyboardEvent } from 'react';
+import { lazy, Suspense, useCallback, useContext, useDeferredValue, useMemo, useRef, useState, type KeyboardEvent } from 'react';
+import { QueryClientContext } from '@tanstack/react-query';
 import type { BoardDetail } from '../../../../shared/schemas/boards.ts';
 import type { Role } from '../../../../shared/schemas/common.ts';
 import { columnByKey, columnGroups, isReadingKey, type ColumnKey } from '../../../../shared/schemas/columns.ts';
@@ -25,6 +26,12 @@ import { cellKey } from './dom-ids.ts';
 import { FindingsPanel } from './findings-panel.tsx';
 import { StatusLine } from './status-line.tsx';
 import { useGridController } from './use-grid-controller.ts';
+import type { ImportDone } from '../import/components/import-dialog.tsx';
+import { sendImportBatch } from '../import/api/import-api.ts';
+
+// Loaded when first opened: neither is on the typing path.
+const ImportDialog = lazy(() => import('../import/components/import-dialog.tsx').then((m) => ({ default: m.ImportDialog })));
+const PhotoPanel = lazy(() => import('../photos/photo-panel.tsx').then((m) => ({ default: m.PhotoPanel })));
 
 export interface BoardConsoleProps {
   sync: BoardSync;
@@ -107,6 +114,11 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   const [quickEntryNote, setQuickEntryNote] = useState<string | undefined>(undefined);
   const quickEntryRef = useRef<HTMLInputElement | null>(null);
   const findingsRef = useRef<HTMLUListElement | null>(null);
+  const [importOpen, setImportOpen] = useState(false);
+  const [photosShown, setPhotosShown] = useState(false);
+  const photoPanelRef = useRef<HTMLDivElement | null>(null);
+  // Read without requiring a provider: the console's own tests render it bare; the app always has one.
+  const queryClient = useContext(QueryClientContext);
 
   // Findings arranged per cell; unchanged circuits keep their objects so their rows do not re-render.
   const findingsIndexRef = useRef<FindingsIndex | undefined>(undefined);
@@ -240,16 +252,63 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
         setLayout((current) => ({ ...current, findings: size }));
         grid.say(size === 'hidden' ? 'Findings panel hidden.' : `Findings panel ${size}.`);
       },
+      openImport: () => setImportOpen(true),
+      showPhotos: () => {
+        setPhotosShown(true);
+        // The panel may be loading: focus it once it is there.
+        const focus = (tries: number) => {
+          if (photoPanelRef.current) photoPanelRef.current.focus();
+          else if (tries > 0) setTimeout(() => focus(tries - 1), 50);
+        };
+        setTimeout(() => focus(40), 0);
+      },
+      hidePhotos: () => {
+        setPhotosShown(false);
+        grid.focusGrid();
+      },
+      photosShown,
     },
   };
   ctxRef.current = ctx;
+
+  /** An import landed: one step of the undo, undone (and redone) as one batch on the server. */
+  const onImported = useCallback(
+    (done: ImportDone) => {
+      setImportOpen(false);
+      const boardId = detail.board.id;
+      const batch = async (direction: 'undo' | 'redo') => {
+        const current = ctxRef.current?.detail;
+        const byId = new Map((current?.circuits ?? []).map((c) => [c.id, c]));
+        const writes = done.changes.map((c) => ({
+          circuitId: c.circuitId,
+          column: c.column,
+          text: direction === 'undo' ? c.before : c.after,
+          reason: null,
+          version: byId.get(c.circuitId)?.cells[c.column]?.version ?? 0,
+        }));
+        if (!queryClient) throw new Error('The app is not connected to its data.');
+        const result = await sendImportBatch(queryClient, boardId, { fileName: done.fileName, action: direction === 'undo' ? 'undo' : 'import', writes });
+        return direction === 'undo'
+          ? `Undone: the import of ${done.fileName} (${result.written} readings put back).`
+          : `Redone: the import of ${done.fileName} (${result.written} readings).`;
+      };
+      ctxRef.current?.grid.recordUndo({
+        label: `the import of ${done.fileName}`,
+        changes: done.changes.map((c) => ({ circuitId: c.circuitId, column: c.column, before: c.before, after: c.after })),
+        apply: batch,
+      });
+      ctxRef.current?.grid.say(`Imported ${done.written} readings from ${done.fileName}. Undo (Ctrl+Z) takes the whole import back as one step.`);
+      ctxRef.current?.grid.focusGrid();
+    },
+    [detail.board.id, queryClient],
+  );
 
   const onCommandError = useCallback((error: unknown, command: Command<ConsoleContext>) => {
     ctxRef.current?.grid.say(`${command.label}: ${messageOf(error)}`, 'error');
   }, []);
 
   useCommandKeys(registry, ctx, {
-    enabled: !paletteOpen && !keysOpen && !editingBoard,
+    enabled: !paletteOpen && !keysOpen && !importOpen && !editingBoard,
     onNeedsArgs: (command) => openPalette(command.id),
     onUnavailable: (command, reason) => ctxRef.current?.grid.say(`${command.label}: ${reason}.`, 'error'),
     onError: onCommandError,
@@ -385,6 +444,11 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
           onCellPointerDown={grid.onCellPointerDown}
           onCellDoubleClick={grid.onCellDoubleClick}
         />
+        {photosShown && (
+          <Suspense fallback={<aside aria-label="Photos of the notes" className="w-[420px] shrink-0 border-l border-line p-2 text-sm text-muted">Loading the photos…</aside>}>
+            <PhotoPanel boardId={board.id} lockedReason={lockedReason} panelRef={photoPanelRef} onLeave={grid.focusGrid} />
+          </Suspense>
+        )}
         {layout.findings !== 'hidden' && (
           <FindingsPanel
             findings={panelFindings}
@@ -423,6 +487,18 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
         commandId={paletteCommand}
         onError={onCommandError}
       />
+      {importOpen && (
+        <Suspense fallback={null}>
+          <ImportDialog
+            detail={detail}
+            onClose={() => {
+              setImportOpen(false);
+              refocusAfterDialog();
+            }}
+            onImported={onImported}
+          />
+        </Suspense>
+      )}
       <KeysOverlay open={keysOpen} onOpenChange={onKeysOpenChange} registry={registry} ctx={ctx} sections={keySections} />
     </div>
   );

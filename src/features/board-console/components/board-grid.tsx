@@ -97,6 +97,10 @@ export function BoardGrid(props: BoardGridProps) {
     overscan,
     scrollMargin: headerHeight,
     getItemKey: (index) => circuits[index]?.id ?? index,
+    // The virtualiser re-renders on its scroll notice; with flushSync (its default) that render ran
+    // inside the scroll event, on top of the frame PageDown had already built. Batched, it joins
+    // React's next render.
+    useFlushSync: false,
   });
 
   // The rows in view (with the virtualiser's overscan) are built at once; the rows the cursor's

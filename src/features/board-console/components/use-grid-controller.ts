@@ -24,7 +24,7 @@ import {
   type Move,
 } from '../grid/grid-state.ts';
 import { formatTsv, parseTsv } from '../grid/tsv.ts';
-import { emptyUndoStack, popRedo, popUndo, pushUndo, redoWrites, undoWrites, type CellChange, type CellWrite, type UndoStack } from '../grid/undo-stack.ts';
+import { emptyUndoStack, popRedo, popUndo, pushUndo, redoWrites, undoWrites, type CellChange, type CellWrite, type UndoEntry, type UndoStack } from '../grid/undo-stack.ts';
 import type { BoardSync, EntryMethod } from '../sync/types.ts';
 import { cellKey } from './dom-ids.ts';
 import type { GridColumn } from '../layout/console-layout.ts';
@@ -453,6 +453,12 @@ export function useGridController(options: GridControllerOptions) {
       return;
     }
     setUndo(popped.stack);
+    if (popped.entry.apply) {
+      say(`Undoing ${popped.entry.label}…`);
+      popped.entry.apply('undo').then((words) => say(words), (error: unknown) => say(`Not undone — ${error instanceof Error ? error.message : String(error)}`, 'error'));
+      focusGrid();
+      return;
+    }
     replay(undoWrites(popped.entry), `undo ${popped.entry.label}`);
     say(`Undone: ${popped.entry.label} (${popped.entry.changes.length} cell${popped.entry.changes.length === 1 ? '' : 's'}).`);
     focusGrid();
@@ -467,6 +473,11 @@ export function useGridController(options: GridControllerOptions) {
       return;
     }
     setUndo(popped.stack);
+    if (popped.entry.apply) {
+      popped.entry.apply('redo').then((words) => say(words), (error: unknown) => say(`Not redone — ${error instanceof Error ? error.message : String(error)}`, 'error'));
+      focusGrid();
+      return;
+    }
     replay(redoWrites(popped.entry), `redo ${popped.entry.label}`);
     say(`Redone: ${popped.entry.label}.`);
     focusGrid();
@@ -707,6 +718,8 @@ export function useGridController(options: GridControllerOptions) {
     pasteText,
     undo,
     redo,
+    /** Records an action done outside the grid (a file import) as one step of the undo. */
+    recordUndo: (entry: UndoEntry) => setUndo(pushUndo(undoRef.current, entry)),
     onKeyDown,
     onEditorBlur,
     onCellPointerDown,

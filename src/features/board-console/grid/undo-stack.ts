@@ -24,6 +24,12 @@ export interface UndoEntry {
   /** What the action was, in words (shown when it is undone). */
   label: string;
   changes: readonly CellChange[];
+  /**
+   * How to undo or redo the action when it is not cell by cell through the sync engine: a file
+   * import is undone as one batch on the server (one step of the history too). Answers what was
+   * done, in words.
+   */
+  apply?: (direction: 'undo' | 'redo') => Promise<string>;
 }
 
 export interface UndoStack {

@@ -22,3 +22,13 @@ export function reasonsOf(error: unknown): string[] {
   if (details && Array.isArray(details.reasons)) return details.reasons.filter((r): r is string => typeof r === 'string');
   return [];
 }
+
+/** Sends a locked board back to the testers: unlocks it with a reason kept in its history. */
+export function useUnlockBoard() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: async ({ boardId, reason }: { boardId: number; reason: string }) =>
+      (await apiRequest('POST', `/api/boards/${boardId}/unlock`, boardResponseSchema, { reason })).board,
+    onSettled: () => Promise.all([queryClient.invalidateQueries({ queryKey: reviewKeys.all }), queryClient.invalidateQueries({ queryKey: ['boards'] })]),
+  });
+}

@@ -20,6 +20,7 @@ import { createReviewCommands, type ReviewContext, type ReviewSelection } from '
 import { FindingItem } from './finding-item.tsx';
 import { GateReasons } from './gate-reasons.tsx';
 import { JobRecordSummary } from './job-record-summary.tsx';
+import { UnlockBoardForm } from './unlock-board-form.tsx';
 
 const severityRank: Record<string, number> = { error: 0, warning: 1, note: 2 };
 
@@ -318,6 +319,9 @@ function ReviewJobView({ review, role }: { review: ReviewJob; role: Role | null 
                     </button>
                   )}
                 </div>
+                {isReviewer && b.board.state === 'locked' && state !== 'approved' && state !== 'issued' && (
+                  <UnlockBoardForm boardId={b.board.id} reference={b.board.reference} onDone={(text) => setStatus({ text, tone: 'info' })} />
+                )}
                 {b.board.state === 'open' && <GateReasons title={`Before board ${b.board.reference} can be locked`} reasons={b.gate.reasons} okText="Nothing stops this board being locked." />}
                 {missing.length > 0 && (
                   <p className="text-sm">

@@ -5,6 +5,7 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { outboxStorageKey } from '../../../../src/features/board-console/sync/outbox-storage.ts';
 import type { BoardSync } from '../../../../src/features/board-console/sync/types.ts';
 import { stopBoardSync, useBoardSync } from '../../../../src/features/board-console/sync/use-board-sync.ts';
+import { completeBoard } from '../../../server/review/review-fixture.ts';
 import { startSyncServer, type SyncServer } from './sync-server.ts';
 
 function newQueryClient() {
@@ -339,16 +340,18 @@ describe('useBoardSync: live changes', () => {
 
 describe('useBoardSync: refusals', () => {
   it('when the board is locked, then the reading is refused in words and the message stays until the next save', async () => {
+    // Locking needs a board that passes the completeness gate: every reading recorded.
+    await completeBoard(server.app, server.boardId);
     const { result } = renderSync(server.boardId);
     await loaded(result);
     const [c1, c2] = server.circuitIds as [number, number];
     const reviewer = server.as('reviewer');
-    await reviewer('POST', `/api/boards/${server.boardId}/lock`);
+    expect((await reviewer('POST', `/api/boards/${server.boardId}/lock`)).status).toBe(200);
 
     act(() => result.current.writeCell(c1, 'zs', '0.3'));
     await waitFor(() => expect(result.current.status).toMatchObject({ state: 'error', message: expect.stringMatching(/locked/) }));
-    expect(cellOf(result.current, c1, 'zs')).toBeUndefined();
-    expect((await server.cell(c1, 'zs'))).toBeUndefined();
+    expect(cellOf(result.current, c1, 'zs')?.text).toBe('0.44');
+    expect((await server.cell(c1, 'zs'))?.text).toBe('0.44');
     await waitFor(() => expect(result.current.detail?.board.state).toBe('locked'), { timeout: 2000 });
     expect(result.current.status.state).toBe('error');
 
