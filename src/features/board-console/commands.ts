@@ -40,6 +40,8 @@ export interface ConsoleContext {
     toggleDetails(): void;
     /** Opens the board's own details for editing in the header. */
     editBoard(): void;
+    /** Opens the calculators, filled from the active circuit. */
+    openCalculators(): void;
     setFindingsPanel(size: FindingsPanelSize): void;
     /** Opens the import of an instrument's readings file. */
     openImport(): void;
@@ -632,6 +634,14 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
       shortcut: 'Alt+Shift+KeyB',
       when: (ctx) => lockedReason(ctx) ?? true,
       run: (ctx) => ctx.ui.editBoard(),
+    },
+    {
+      id: 'console.calculators',
+      label: 'Calculators: expected R1+R2, longest run, maximum Zs, Zs when hot',
+      group: groups.board,
+      keywords: ['calculate', 'calculator', 'expected', 'max zs', 'length', 'temperature', 'r1+r2'],
+      shortcut: 'Alt+Shift+KeyC',
+      run: (ctx) => ctx.ui.openCalculators(),
     },
     {
       id: 'console.fold-details',

@@ -19,6 +19,7 @@ import { QuickEntryLine } from '../quick-entry/quick-entry-line.tsx';
 import { quickEntryWordsSection, type QuickEntry, type QuickEntryCircuit } from '../quick-entry/parse-quick-entry.ts';
 import type { BoardSync, Conflict } from '../sync/types.ts';
 import { BoardDetailsForm } from './board-details-form.tsx';
+import { CalculatorsPanel } from './calculators-panel.tsx';
 import { BoardGrid } from './board-grid.tsx';
 import { ConflictList } from './conflict-list.tsx';
 import { ConsoleHeader } from './console-header.tsx';
@@ -111,6 +112,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   const [paletteCommand, setPaletteCommand] = useState<string | undefined>(undefined);
   const [keysOpen, setKeysOpen] = useState(false);
   const [editingBoard, setEditingBoard] = useState(false);
+  const [calculatorsOpen, setCalculatorsOpen] = useState(false);
   const [quickEntryNote, setQuickEntryNote] = useState<string | undefined>(undefined);
   const quickEntryRef = useRef<HTMLInputElement | null>(null);
   const findingsRef = useRef<HTMLUListElement | null>(null);
@@ -236,6 +238,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
         grid.say(`${label} ${folding ? 'folded to one column' : 'unfolded'}.`);
       },
       editBoard: () => setEditingBoard(true),
+      openCalculators: () => setCalculatorsOpen(true),
       toggleDetails: () => {
         const folding = !layout.detailsFolded;
         // Folding the details is the laptop layout: a wide findings panel goes narrow with it, so
@@ -308,7 +311,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   }, []);
 
   useCommandKeys(registry, ctx, {
-    enabled: !paletteOpen && !keysOpen && !importOpen && !editingBoard,
+    enabled: !paletteOpen && !keysOpen && !importOpen && !editingBoard && !calculatorsOpen,
     onNeedsArgs: (command) => openPalette(command.id),
     onUnavailable: (command, reason) => ctxRef.current?.grid.say(`${command.label}: ${reason}.`, 'error'),
     onError: onCommandError,
@@ -396,6 +399,26 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   return (
     <div className="flex h-full min-h-0 flex-col">
       <ConsoleHeader board={board} site={detail.site} job={detail.job} present={sync.present} status={sync.status} />
+      {calculatorsOpen && (
+        <CalculatorsPanel
+          detail={detail}
+          circuit={grid.activeCircuit}
+          activeLabel={active ? `${columnByKey[active.column].label} of circuit ${grid.activeCircuit?.number ?? ''}` : null}
+          onPut={(text) => {
+            const g = ctxRef.current?.grid;
+            const position = g?.active;
+            if (!g || !position) return;
+            const result = g.applyChanges([{ ...position, before: g.read(position), after: text }], 'typed', 'put a calculated value');
+            g.say(result.refused[0] ? `Not saved — ${result.refused[0].message}` : `Put ${text} into ${columnByKey[position.column].label} of circuit ${g.activeCircuit?.number ?? ''} (calculated).`, result.refused[0] ? 'error' : 'info');
+            setCalculatorsOpen(false);
+            g.focusGrid();
+          }}
+          onClose={() => {
+            setCalculatorsOpen(false);
+            ctxRef.current?.grid.focusGrid();
+          }}
+        />
+      )}
       {editingBoard && (
         <BoardDetailsForm
           board={board}
