@@ -126,6 +126,7 @@ export interface CircuitTable {
   spur_ring_id: number | null;
   spur_origin_point: string | null;
   spur_length_m: number | null;
+  spur_protection: 'fused' | 'unfused' | null;
   max_zs_by_hand_ohm: number | null;
   previous_circuit_id: number | null;
   version: Generated<number>;

@@ -76,6 +76,11 @@ export const circuitFieldsSchema = z.object({
   spurOriginPoint: z.string().max(60).nullable(),
   /** For a spur: length of the spur cable (m), when known. */
   spurLengthM: z.number().positive().max(1000).nullable(),
+  /**
+   * For a spur: through a fused connection unit (`fused`, any number of points) or not (`unfused`:
+   * one single or twin socket or one fixed appliance). Optional so circuits written before it fit.
+   */
+  spurProtection: z.enum(['fused', 'unfused']).nullable().optional(),
   /** A maximum Zs (Ω) entered by hand for a device the published tables do not cover. */
   // Up to 2000 Ω: on TT the limit set by an RCD is 50 V / IΔn (1667 Ω at 30 mA).
   maxZsByHandOhm: z.number().positive().max(2000).nullable(),

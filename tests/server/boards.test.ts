@@ -42,6 +42,19 @@ describe('GET /api/boards and /api/boards/:boardId', () => {
     expect((await agent.get(`/api/boards/${board}/gate`)).body.gate).toMatchObject({ canLock: true, reasons: [] });
   });
 
+  it('when a spur is linked as fused, then the board serves it, and a word other than fused or unfused is refused in words', async () => {
+    const agent = await t.signIn('tester');
+    const ok = await agent
+      .patch(`/api/boards/${board}/circuits/${lights}`)
+      .send({ version: 1, changes: { kind: 'spur', spurRingId: ring, spurOriginPoint: 'socket 4', spurProtection: 'fused' } });
+    expect(ok.status).toBe(200);
+    const served = (await agent.get(`/api/boards/${board}`)).body.circuits.find((c: { id: number }) => c.id === lights);
+    expect(served).toMatchObject({ kind: 'spur', spurRingId: ring, spurOriginPoint: 'socket 4', spurProtection: 'fused' });
+    const bad = await agent.patch(`/api/boards/${board}/circuits/${lights}`).send({ version: 2, changes: { spurProtection: 'maybe' } });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.message).toEqual(expect.any(String));
+  });
+
   it('when fetching a board, then circuits come in order with cells, versions and findings', async () => {
     const agent = await t.signIn('tester');
     await agent.put(cellUrl(ring, 'zs')).send({ text: '0.44', version: 0 });

@@ -391,6 +391,15 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         { name: 'origin', label: 'Origin point on the ring', kind: 'text', required: true, placeholder: 'e.g. socket 4, kitchen' },
         { name: 'length', label: 'Spur cable length (m)', kind: 'number', placeholder: 'e.g. 7' },
         { name: 'csa', label: 'Spur cable csa, live/cpc (mm²)', kind: 'text', placeholder: 'e.g. 2.5/1.5' },
+        {
+          name: 'protection',
+          label: 'Fused (through a fused connection unit) or unfused',
+          kind: 'choice',
+          options: () => [
+            { value: 'unfused', label: 'Unfused — one single or twin socket, or one fixed appliance' },
+            { value: 'fused', label: 'Fused — through a fused connection unit' },
+          ],
+        },
       ],
       when: (ctx) => {
         const can = canEdit(ctx);
@@ -429,8 +438,10 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         ctx.sync.writeField(circuit.id, 'spurRingId', ring.id);
         ctx.sync.writeField(circuit.id, 'spurOriginPoint', origin);
         ctx.sync.writeField(circuit.id, 'spurLengthM', length);
+        const protection = args.protection === 'fused' || args.protection === 'unfused' ? args.protection : null;
+        ctx.sync.writeField(circuit.id, 'spurProtection', protection);
         ctx.grid.say(
-          `Circuit ${circuit.number} is a spur of ring ${ring.number} from ${origin}${length !== null ? `, ${fieldText(length)} m` : ''}${csa ? `, ${csa.live}/${csa.cpc} mm²` : ''}.`,
+          `Circuit ${circuit.number} is ${protection === 'unfused' ? 'an unfused ' : protection === 'fused' ? 'a fused ' : 'a '}spur of ring ${ring.number} from ${origin}${length !== null ? `, ${fieldText(length)} m` : ''}${csa ? `, ${csa.live}/${csa.cpc} mm²` : ''}.`,
         );
         ctx.grid.focusGrid();
       },

@@ -162,6 +162,8 @@ export function BoardGrid(props: BoardGridProps) {
   const activeColumn = activeCol >= 0 ? columns[activeCol] : undefined;
   const activeDescendant = activeCircuit && activeColumn && !edit ? cellDomId(activeCircuit.id, activeColumn.key) : undefined;
 
+  const linkNotes = useMemo(() => spurLinkNotes(circuits), [circuits]);
+
   const groups = useMemo(
     () =>
       columnGroups
@@ -212,6 +214,7 @@ export function BoardGrid(props: BoardGridProps) {
               conflicts={conflicts.get(circuit.id) ?? emptyRowConflicts}
               errors={rowErrors(cellErrors, circuit.id)}
               pending={props.pending.get(circuit.id) ?? ''}
+              linkNote={linkNotes.get(circuit.id) ?? ''}
               onResolveConflict={props.onResolveConflict}
               editorRef={props.editorRef}
               onEditorBlur={props.onEditorBlur}
@@ -330,7 +333,34 @@ function rowErrors(errors: ReadonlyMap<string, string>, circuitId: number): Read
   return found ?? emptyRowErrors;
 }
 
+/**
+ * What a row says of its spur links, beside its description: a spur names its ring and origin
+ * (and whether it is fused), a ring lists its spurs.
+ */
+export function spurLinkNotes(circuits: readonly Circuit[]): Map<number, string> {
+  const notes = new Map<number, string>();
+  const byId = new Map(circuits.map((c) => [c.id, c]));
+  const spursOf = new Map<number, Circuit[]>();
+  for (const c of circuits) {
+    if (c.spurRingId === null) continue;
+    const ring = byId.get(c.spurRingId);
+    const protection = c.spurProtection ? `, ${c.spurProtection}` : '';
+    notes.set(c.id, ring ? `spur of ${ring.number}${c.spurOriginPoint ? ` from ${c.spurOriginPoint}` : ''}${protection}` : 'spur of a ring not on this board');
+    if (ring) {
+      let list = spursOf.get(ring.id);
+      if (!list) spursOf.set(ring.id, (list = []));
+      list.push(c);
+    }
+  }
+  for (const [ringId, spurs] of spursOf) {
+    notes.set(ringId, `spurs: ${spurs.map((s) => `${s.number}${s.spurProtection ? ` (${s.spurProtection})` : ''}`).join(', ')}`);
+  }
+  return notes;
+}
+
 interface GridRowProps {
+  /** The row's spur link in words ("spur of 3 from socket 4, unfused"; "spurs: 5, 6"), or ''. */
+  linkNote: string;
   circuit: Circuit;
   index: number;
   top: number;
@@ -402,6 +432,7 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
             column={column}
             col={col}
             text={summaryOf(column) ? summaryText(circuit, summaryOf(column)!) : cellText(circuit, column.key)}
+            note={column.key === 'description' ? props.linkNote : ''}
             limReason={reading && reading.text.toUpperCase() === 'LIM' ? reading.reason : null}
             isActive={isActive}
             selected={hasRange && col >= rangeLeft && col <= rangeRight}
@@ -424,6 +455,8 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
 });
 
 interface GridCellProps {
+  /** Words shown after the value, muted (the description's spur link). */
+  note: string;
   circuitId: number;
   circuitNumber: string;
   column: ColumnDef;
@@ -488,6 +521,7 @@ const GridCell = memo(function GridCell(props: GridCellProps) {
           className={`min-w-0 flex-1 truncate pl-1.5 ${marked ? 'pr-4' : 'pr-1'} ${column.valueKind === 'text' || column.valueKind === 'choice' ? '' : 'font-mono text-[13px]'}`}
         >
           {text}
+          {props.note !== '' && <span className="text-xs text-muted"> · {props.note}</span>}
         </span>
       )}
       {conflict && (

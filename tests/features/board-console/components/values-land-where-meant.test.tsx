@@ -242,3 +242,30 @@ describe('inserting a circuit', () => {
     await waitFor(() => expect(screen.getByRole('status')).toHaveTextContent('Circuit 2a inserted with the device of circuit 2 (60898 B 6 A)'));
   });
 });
+
+describe('spur links in the rows', () => {
+  it('when a spur hangs off a ring, then the spur names its ring, origin and fuse, and the ring lists its spurs', () => {
+    const { grid } = renderConsole(
+      boardDetail([
+        circuit(71, '1', {}, { kind: 'ring', description: 'Sockets', ratingA: 32 }),
+        circuit(72, '2', {}, { kind: 'spur', description: 'Garage socket', spurRingId: 71, spurOriginPoint: 'socket 4', spurProtection: 'unfused' }),
+        circuit(73, '3', {}, { kind: 'spur', description: 'Boiler', spurRingId: 71, spurOriginPoint: 'socket 2', spurProtection: 'fused' }),
+      ]),
+    );
+    expect(cellOf(grid, '2', 'Description')).toHaveTextContent('Garage socket · spur of 1 from socket 4, unfused');
+    expect(cellOf(grid, '1', 'Description')).toHaveTextContent('Sockets · spurs: 2 (unfused), 3 (fused)');
+  });
+
+  it('when a spur is linked from the palette, then fused or unfused is asked for and written with the link', async () => {
+    const { grid, user, calls } = renderConsole(house());
+    await user.click(cellOf(grid, '2', 'Zs'));
+    await user.keyboard('{Control>}k{/Control}');
+    await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('link a spur{Enter}');
+    await user.keyboard('{Enter}'); // the only ring: circuit 1
+    await user.keyboard('socket 4{Enter}{Enter}{Enter}');
+    await user.keyboard('unfused{Enter}');
+    await waitFor(() => expect(calls.some((c) => c.kind === 'field' && c.field === 'spurProtection' && c.value === 'unfused')).toBe(true));
+    expect(screen.getByRole('status')).toHaveTextContent('Circuit 2 is an unfused spur of ring 1 from socket 4');
+  });
+});
