@@ -225,3 +225,27 @@ export const boardChangesResponseSchema = z.object({
   present: z.array(z.object({ id: z.number().int(), name: z.string() })),
 });
 export type BoardChanges = Omit<z.infer<typeof boardChangesResponseSchema>, 'circuits'> & { circuits: Circuit[] };
+
+/** `GET /api/boards/:boardId/history?person=&column=`: the board's changes, newest first. */
+export const boardHistoryQuerySchema = z.object({
+  person: z.coerce.number().int().positive().optional(),
+  column: z.string().max(40).optional(),
+});
+
+export const boardHistoryEntrySchema = z.object({
+  id: z.number().int(),
+  circuitId: z.number().int().nullable(),
+  /** Null when the circuit was removed since, or the change is the board's own. */
+  circuitNumber: z.string().nullable(),
+  column: z.string().nullable(),
+  /** What changed: a cell, a detail field, a circuit added or removed, the board locked or unlocked… */
+  action: z.string(),
+  oldText: z.string().nullable(),
+  newText: z.string().nullable(),
+  by: z.object({ id: z.number().int(), name: z.string() }).nullable(),
+  at: z.string(),
+  /** typed, dictated, pasted, imported, filled… */
+  how: z.string(),
+});
+export type BoardHistoryEntry = z.infer<typeof boardHistoryEntrySchema>;
+export const boardHistoryResponseSchema = z.object({ history: z.array(boardHistoryEntrySchema), people: z.array(z.object({ id: z.number().int(), name: z.string() })) });

@@ -55,6 +55,25 @@ describe('GET /api/boards and /api/boards/:boardId', () => {
     expect(bad.body.error.message).toEqual(expect.any(String));
   });
 
+  it('when a board was typed, locked and unlocked, then its history lists every change newest first, with the unlock reason, filterable by person and column', async () => {
+    const tester = await t.signIn('tester');
+    await tester.put(cellUrl(ring, 'zs')).send({ text: '0.44', version: 0 });
+    await completeBoard(t);
+    const reviewer = await t.signIn('reviewer');
+    expect((await reviewer.post(`/api/boards/${board}/lock`).send({})).status).toBe(200);
+    expect((await reviewer.post(`/api/boards/${board}/unlock`).send({ reason: 'Zs of circuit 1 to be tested again' })).status).toBe(200);
+    const all = (await tester.get(`/api/boards/${board}/history`)).body;
+    expect(all.history.length).toBeGreaterThanOrEqual(3);
+    const ids = all.history.map((h: { id: number }) => h.id);
+    expect(ids).toEqual([...ids].sort((a: number, b: number) => b - a));
+    expect(JSON.stringify(all.history[0])).toContain('Zs of circuit 1 to be tested again');
+    expect(all.people.map((p: { name: string }) => p.name)).toEqual(expect.arrayContaining(['Tom Tester']));
+    const tom = all.people.find((p: { name: string }) => p.name === 'Tom Tester').id;
+    const zsByTom = (await tester.get(`/api/boards/${board}/history?person=${tom}&column=zs`)).body.history;
+    expect(zsByTom).toEqual([expect.objectContaining({ circuitNumber: '1', column: 'zs', newText: '0.44', how: 'typed', by: { id: tom, name: 'Tom Tester' } })]);
+    expect((await tester.get(`/api/boards/${board}/history?person=abc`)).status).toBe(400);
+  });
+
   it('when fetching a board, then circuits come in order with cells, versions and findings', async () => {
     const agent = await t.signIn('tester');
     await agent.put(cellUrl(ring, 'zs')).send({ text: '0.44', version: 0 });

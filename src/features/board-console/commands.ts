@@ -94,6 +94,23 @@ function selectionWords(circuits: readonly Circuit[]): string {
 
 // ---- helpers -----------------------------------------------------------------------------
 
+/**
+ * What is still open on a board about to be locked, in words: the findings that stand (warnings and
+ * notes pass the gate; errors must be resolved or accepted first) and edits not yet saved.
+ */
+export function openSummary(ctx: Pick<ConsoleContext, 'detail' | 'sync'>): string {
+  const counts = { error: 0, warning: 0, note: 0, todo: 0 };
+  for (const f of ctx.detail.findings) counts[f.severity] += 1;
+  const parts: string[] = [];
+  const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
+  if (counts.error > 0) parts.push(`${plural(counts.error, 'error')} (accepted with a reason)`);
+  if (counts.warning > 0) parts.push(plural(counts.warning, 'warning'));
+  if (counts.note > 0) parts.push(plural(counts.note, 'note'));
+  if (counts.todo > 0) parts.push(`${plural(counts.todo, 'reading')} to do`);
+  const waiting = ctx.sync.status.state === 'saving' || ctx.sync.status.state === 'offline' ? ' · edits still being saved' : '';
+  return parts.length === 0 ? `nothing still open${waiting}` : `still standing: ${parts.join(', ')}${waiting}`;
+}
+
 function fieldChanges(circuits: readonly Circuit[], fields: Partial<Record<ColumnKey, string>>, read: (p: GridPosition) => string): CellChange[] {
   const changes: CellChange[] = [];
   for (const circuit of circuits) {
@@ -703,6 +720,18 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
       label: 'Lock the board',
       group: groups.board,
       keywords: ['lock', 'review', 'finish', 'freeze'],
+      params: [
+        {
+          name: 'confirm',
+          label: 'Lock the board? What still stands is listed; nothing on the board changes until a reviewer unlocks it',
+          kind: 'choice',
+          required: true,
+          options: () => {
+            const ctx = current();
+            return [{ value: 'yes', label: `Yes, lock it — ${ctx ? openSummary(ctx) : 'nothing recorded still open'}` }, { value: 'no', label: 'No, keep it open' }];
+          },
+        },
+      ],
       when: (ctx) => {
         if (ctx.role !== 'reviewer' && ctx.role !== 'admin') return 'Only a reviewer or an admin can lock a board';
         if (ctx.detail.board.state === 'locked') return 'The board is already locked';
@@ -710,7 +739,12 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         const reasons = ctx.lockReasons ?? [];
         return reasons.length === 0 ? true : `Not yet — ${reasons.length} ${reasons.length === 1 ? 'reason' : 'reasons'}: ${reasons.join(' · ')}`;
       },
-      run: async (ctx) => {
+      run: async (ctx, args) => {
+        if (args.confirm !== 'yes') {
+          ctx.grid.say(`Board ${ctx.detail.board.reference} left open.`);
+          ctx.grid.focusGrid();
+          return;
+        }
         if (ctx.grid.stateRef.current.edit) ctx.grid.commitEdit(null);
         await ctx.sync.lockBoard();
         ctx.grid.say(`Board ${ctx.detail.board.reference} locked.`);
