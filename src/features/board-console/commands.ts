@@ -7,6 +7,7 @@
 import type { BoardDetail, Circuit, CircuitFields } from '../../../shared/schemas/boards.ts';
 import { columnByKey, columnGroups, columns, isReadingKey, type ColumnGroupId, type ColumnKey } from '../../../shared/schemas/columns.ts';
 import { foldShortcut, type ConsoleLayout, type FindingsPanelSize } from './layout/console-layout.ts';
+import type { HistoryTarget } from './components/history-panel.tsx';
 import type { Role } from '../../../shared/schemas/common.ts';
 import type { Command } from '../../lib/commands/types.ts';
 import { fieldText } from './grid/cell-value.ts';
@@ -42,6 +43,8 @@ export interface ConsoleContext {
     editBoard(): void;
     /** Opens the calculators, filled from the active circuit. */
     openCalculators(): void;
+    /** Shows the active cell's history, or the board's. */
+    openHistory(target: HistoryTarget): void;
     setFindingsPanel(size: FindingsPanelSize): void;
     /** Opens the import of an instrument's readings file. */
     openImport(): void;
@@ -662,6 +665,28 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
       shortcut: 'Alt+Shift+KeyB',
       when: (ctx) => lockedReason(ctx) ?? true,
       run: (ctx) => ctx.ui.editBoard(),
+    },
+    {
+      id: 'console.cell-history',
+      label: 'History of the active cell (who, when, how)',
+      group: groups.board,
+      keywords: ['history', 'who', 'changed', 'audit', 'cell'],
+      shortcut: 'Alt+Shift+KeyH',
+      when: (ctx) => (ctx.grid.active ? true : 'There is no cell to show'),
+      run: (ctx) => {
+        const active = ctx.grid.active;
+        const circuit = activeCircuit(ctx);
+        if (!active || !circuit) return;
+        ctx.ui.openHistory({ kind: 'cell', circuitId: circuit.id, circuitNumber: circuit.number, column: active.column });
+      },
+    },
+    {
+      id: 'console.board-history',
+      label: 'Board history, by person and column',
+      group: groups.board,
+      keywords: ['history', 'who', 'changed', 'audit', 'board', 'unlock reasons'],
+      shortcut: 'Alt+Shift+KeyY',
+      run: (ctx) => ctx.ui.openHistory({ kind: 'board' }),
     },
     {
       id: 'console.calculators',

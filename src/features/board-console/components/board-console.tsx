@@ -20,6 +20,7 @@ import { quickEntryWordsSection, type QuickEntry, type QuickEntryCircuit } from 
 import type { BoardSync, Conflict } from '../sync/types.ts';
 import { BoardDetailsForm } from './board-details-form.tsx';
 import { CalculatorsPanel } from './calculators-panel.tsx';
+import { HistoryPanel, type HistoryTarget } from './history-panel.tsx';
 import { BoardGrid } from './board-grid.tsx';
 import { ConflictList } from './conflict-list.tsx';
 import { ConsoleHeader } from './console-header.tsx';
@@ -113,6 +114,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   const [keysOpen, setKeysOpen] = useState(false);
   const [editingBoard, setEditingBoard] = useState(false);
   const [calculatorsOpen, setCalculatorsOpen] = useState(false);
+  const [history, setHistory] = useState<HistoryTarget | null>(null);
   const [quickEntryNote, setQuickEntryNote] = useState<string | undefined>(undefined);
   const quickEntryRef = useRef<HTMLInputElement | null>(null);
   const findingsRef = useRef<HTMLUListElement | null>(null);
@@ -239,6 +241,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
       },
       editBoard: () => setEditingBoard(true),
       openCalculators: () => setCalculatorsOpen(true),
+      openHistory: (target) => setHistory(target),
       toggleDetails: () => {
         const folding = !layout.detailsFolded;
         // Folding the details is the laptop layout: a wide findings panel goes narrow with it, so
@@ -311,7 +314,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   }, []);
 
   useCommandKeys(registry, ctx, {
-    enabled: !paletteOpen && !keysOpen && !importOpen && !editingBoard && !calculatorsOpen,
+    enabled: !paletteOpen && !keysOpen && !importOpen && !editingBoard && !calculatorsOpen && !history,
     onNeedsArgs: (command) => openPalette(command.id),
     onUnavailable: (command, reason) => ctxRef.current?.grid.say(`${command.label}: ${reason}.`, 'error'),
     onError: onCommandError,
@@ -399,6 +402,17 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   return (
     <div className="flex h-full min-h-0 flex-col">
       <ConsoleHeader board={board} site={detail.site} job={detail.job} present={sync.present} status={sync.status} />
+      {history && (
+        <HistoryPanel
+          key={history.kind === 'cell' ? `${history.circuitId}:${history.column}` : 'board'}
+          boardId={board.id}
+          target={history}
+          onClose={() => {
+            setHistory(null);
+            ctxRef.current?.grid.focusGrid();
+          }}
+        />
+      )}
       {calculatorsOpen && (
         <CalculatorsPanel
           detail={detail}

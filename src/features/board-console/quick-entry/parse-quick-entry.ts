@@ -244,6 +244,8 @@ function walk(input: string, ctx: QuickEntryContext): Walk {
   }
   const tokenized = tokenize(input);
   if (!tokenized.ok) return fail(tokenized.message);
+  // Only separators (",", ";"): nothing to write.
+  if (tokenized.tokens.length === 0) return fail('type a circuit and a value, e.g. 7 .44 or 7 zs .44');
 
   const activeColumn: ColumnDef | undefined = columnByKey[ctx.activeColumn];
   const entries: QuickEntry[] = [];

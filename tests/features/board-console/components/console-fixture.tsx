@@ -1,4 +1,5 @@
 import { act, render } from '@testing-library/react';
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import userEvent from '@testing-library/user-event';
 import { useMemo, useState } from 'react';
 import type { BoardDetail, Circuit, CircuitFields } from '../../../../shared/schemas/boards.ts';
@@ -141,7 +142,13 @@ export function renderConsole(initial: BoardDetail, options: ConsoleHarnessOptio
   }
 
   const user = userEvent.setup();
-  const result = render(<Harness />);
+  // A fresh query client per test, retries off (panels beside the grid read the API).
+  const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+  const result = render(
+    <QueryClientProvider client={queryClient}>
+      <Harness />
+    </QueryClientProvider>,
+  );
   const grid = result.getByRole('grid');
   /** Applies a change as if it came from another typist through the changes feed. */
   const remoteUpdate = (change: (detail: BoardDetail) => BoardDetail) => act(() => remote.update(change));
