@@ -146,6 +146,16 @@ export interface CellTable {
  * One change of any kind. `action` says what: `cell` (a reading), `field` (a circuit detail),
  * `circuit-created`, `circuit-removed`, `reordered`, `board` (a board detail), `locked`, `unlocked`.
  */
+/** A ring's socket-by-socket readings (migration 2026-12-02T0260-ring-sockets.ts). */
+export interface RingSocketsTable {
+  circuit_id: number;
+  /** JSON: the sockets in ring order (`ringSocketsSchema`). */
+  data: string;
+  version: number;
+  updated_by: number | null;
+  updated_at: string;
+}
+
 export interface HistoryTable {
   id: Generated<number>;
   board_id: number;
@@ -254,6 +264,7 @@ export interface Database {
   circuits: CircuitTable;
   cells: CellTable;
   history: HistoryTable;
+  ring_sockets: RingSocketsTable;
   app_settings: AppSettingTable;
   files: FileTable;
   import_mappings: ImportMappingTable;
