@@ -45,6 +45,8 @@ export interface ConsoleContext {
     openCalculators(): void;
     /** Shows the active cell's history, or the board's. */
     openHistory(target: HistoryTarget): void;
+    /** Opens a ring's socket-by-socket readings. */
+    openRingSockets(circuitId: number): void;
     setFindingsPanel(size: FindingsPanelSize): void;
     /** Opens the import of an instrument's readings file. */
     openImport(): void;
@@ -665,6 +667,22 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
       shortcut: 'Alt+Shift+KeyB',
       when: (ctx) => lockedReason(ctx) ?? true,
       run: (ctx) => ctx.ui.editBoard(),
+    },
+    {
+      id: 'console.ring-sockets',
+      label: 'Socket-by-socket readings of the ring (plot and diagnosis)',
+      group: groups.circuits,
+      keywords: ['ring', 'socket', 'cross-connected', 'profile', 'step 3', 'figure of eight', 'l-cpc', 'l-n'],
+      shortcut: 'Alt+Shift+KeyR',
+      when: (ctx) => {
+        const circuit = activeCircuit(ctx);
+        if (!circuit) return 'There is no circuit on this board yet';
+        return circuit.kind === 'ring' ? true : `Circuit ${circuit.number} is not a ring final circuit`;
+      },
+      run: (ctx) => {
+        const circuit = activeCircuit(ctx);
+        if (circuit) ctx.ui.openRingSockets(circuit.id);
+      },
     },
     {
       id: 'console.cell-history',

@@ -21,6 +21,7 @@ import type { BoardSync, Conflict } from '../sync/types.ts';
 import { BoardDetailsForm } from './board-details-form.tsx';
 import { CalculatorsPanel } from './calculators-panel.tsx';
 import { HistoryPanel, type HistoryTarget } from './history-panel.tsx';
+import { RingSocketsPanel } from './ring-sockets-panel.tsx';
 import { BoardGrid } from './board-grid.tsx';
 import { ConflictList } from './conflict-list.tsx';
 import { ConsoleHeader } from './console-header.tsx';
@@ -115,6 +116,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   const [editingBoard, setEditingBoard] = useState(false);
   const [calculatorsOpen, setCalculatorsOpen] = useState(false);
   const [history, setHistory] = useState<HistoryTarget | null>(null);
+  const [ringSocketsOf, setRingSocketsOf] = useState<number | null>(null);
   const [quickEntryNote, setQuickEntryNote] = useState<string | undefined>(undefined);
   const quickEntryRef = useRef<HTMLInputElement | null>(null);
   const findingsRef = useRef<HTMLUListElement | null>(null);
@@ -242,6 +244,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
       editBoard: () => setEditingBoard(true),
       openCalculators: () => setCalculatorsOpen(true),
       openHistory: (target) => setHistory(target),
+      openRingSockets: (circuitId) => setRingSocketsOf(circuitId),
       toggleDetails: () => {
         const folding = !layout.detailsFolded;
         // Folding the details is the laptop layout: a wide findings panel goes narrow with it, so
@@ -314,7 +317,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   }, []);
 
   useCommandKeys(registry, ctx, {
-    enabled: !paletteOpen && !keysOpen && !importOpen && !editingBoard && !calculatorsOpen && !history,
+    enabled: !paletteOpen && !keysOpen && !importOpen && !editingBoard && !calculatorsOpen && !history && ringSocketsOf === null,
     onNeedsArgs: (command) => openPalette(command.id),
     onUnavailable: (command, reason) => ctxRef.current?.grid.say(`${command.label}: ${reason}.`, 'error'),
     onError: onCommandError,
@@ -402,6 +405,29 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null,
   return (
     <div className="flex h-full min-h-0 flex-col">
       <ConsoleHeader board={board} site={detail.site} job={detail.job} present={sync.present} status={sync.status} />
+      {ringSocketsOf !== null && detail.circuits.find((c) => c.id === ringSocketsOf) && (
+        <RingSocketsPanel
+          key={ringSocketsOf}
+          boardId={board.id}
+          circuit={detail.circuits.find((c) => c.id === ringSocketsOf)!}
+          locked={board.state === 'locked'}
+          onRecord={(text) => {
+            const g = ctxRef.current?.grid;
+            if (!g) return;
+            const position = { circuitId: ringSocketsOf, column: 'r1PlusR2' as const };
+            const result = g.applyChanges([{ ...position, before: g.read(position), after: text }], 'typed', 'recorded R1+R2 from the socket readings');
+            setRingSocketsOf(null);
+            g.moveTo(position);
+            g.say(result.refused[0] ? `Not saved — ${result.refused[0].message}` : `R1+R2 of circuit ${detail.circuits.find((c) => c.id === ringSocketsOf)?.number ?? ''} recorded as ${text} (the highest L-cpc reading).`, result.refused[0] ? 'error' : 'info');
+            g.focusGrid();
+          }}
+          onClose={(message) => {
+            setRingSocketsOf(null);
+            if (message) ctxRef.current?.grid.say(message);
+            ctxRef.current?.grid.focusGrid();
+          }}
+        />
+      )}
       {history && (
         <HistoryPanel
           key={history.kind === 'cell' ? `${history.circuitId}:${history.column}` : 'board'}
