@@ -21,7 +21,7 @@ const applied = await migrateToLatest(db);
 if (applied.length > 0) console.log(`Applied migrations: ${applied.join(', ')}`);
 
 if (!(await databaseHasUsers(db))) {
-  await seedDemo(db);
+  await seedDemo(db, { dataDir });
   console.log('Seeded the demo data into an empty database.');
 }
 // The demo sign-ins are printed while the demo accounts exist (they are demo data only).

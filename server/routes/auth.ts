@@ -56,7 +56,7 @@ export function authRoutes(db: DB, loadUser: UserLoader, options: { signInAttemp
     const me = currentUser(req);
     const row = await findUserById(db, me.id);
     if (!(await verifyPassword(row, body.currentPassword))) {
-      throw new HttpError('bad_request', 'The current password is not right; nothing was changed.', undefined);
+      throw new HttpError('bad_request', 'The current password is not right; nothing was changed.', { field: 'currentPassword' });
     }
     const updated = await updateUser(db, me.id, { password: body.newPassword }, me.id);
     req.session.sessionGeneration = updated!.session_generation;

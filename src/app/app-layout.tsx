@@ -62,6 +62,11 @@ export function AppLayout() {
               <span className="rounded border border-line px-1.5 py-px text-xs text-muted capitalize">{me.role}</span>
             </span>
           )}
+          {me && (
+            <NavLink to="/account/password" className={navLinkClass}>
+              Password
+            </NavLink>
+          )}
           {signOut.isError && (
             <span role="alert" className="text-danger">
               Sign-out failed: {signOut.error.message}

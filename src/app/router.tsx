@@ -55,6 +55,13 @@ export const appRoutes: RouteObject[] = [
             },
           },
           {
+            path: 'account/password',
+            lazy: async () => {
+              const { PasswordPage } = await import('../features/auth/components/password-page.tsx');
+              return { Component: PasswordPage };
+            },
+          },
+          {
             path: 'review',
             lazy: async () => {
               const { ReviewQueueRoute } = await import('./review-routes.tsx');

@@ -43,7 +43,7 @@ const mark = (ok: boolean) => (ok ? 'pass' : 'MISS');
 async function prepareDatabase(file: string): Promise<{ demoBoardId: number; bigBoardId: number }> {
   const { db } = openDatabase(file);
   await migrateToLatest(db);
-  await seedDemo(db);
+  await seedDemo(db, { dataDir: path.dirname(file) });
   const { boardId, fromBoardId } = await addRepeatedBoard(db, 300);
   await db.destroy();
   return { demoBoardId: fromBoardId, bigBoardId: boardId };

@@ -5,7 +5,9 @@ import { demoTester, useDemoServerAndBrowser } from '../helpers/browser.ts';
 /**
  * Importing an instrument-like readings file (generated here, of our own layout) into the demo's
  * three-phase board, keyboard first: the file carries the board's own values for filled cells,
- * invented values for empty ones, and two values that differ (one kept, one taken).
+ * invented values for empty ones, and two values that differ (one kept, one taken). The demo board
+ * has every reading the schedule needs, so the new values are a column it does not have yet: the
+ * RCD's time at 5 × IΔn (where there is an RCD; N/A where there is none).
  */
 
 const env = useDemoServerAndBrowser();
@@ -13,6 +15,7 @@ const env = useDemoServerAndBrowser();
 interface ApiCircuit {
   id: number;
   number: string;
+  rcdType: string | null;
   cells: Record<string, { text: string; version: number } | undefined>;
 }
 
@@ -24,7 +27,12 @@ const columns = [
   ['Zs (Ω)', 'zs', '0.48'],
   ['RCD time (ms)', 'rcdTimeMs', '21'],
   ['Polarity', 'polarity', '✓'],
+  // Invented, under the 40 ms of BS EN 61008-1 / 61009-1 at 5 × IΔn; N/A without an RCD (below).
+  ['RCD 5× IΔn (ms)', 'rcdTime5Ms', '11'],
 ] as const;
+
+/** The file's invented value for an empty cell: an RCD time only where the circuit has an RCD. */
+const invent = (c: ApiCircuit, key: string, invented: string) => (key === 'rcdTime5Ms' && c.rcdType === null ? 'N/A' : invented);
 
 async function circuitsOf(page: Page, boardId: number): Promise<ApiCircuit[]> {
   return page.evaluate(async (id) => ((await (await fetch(`/api/boards/${id}`)).json()) as { circuits: ApiCircuit[] }).circuits, boardId);
@@ -52,12 +60,14 @@ describe('importing a readings file', () => {
     const fileValue = (c: ApiCircuit, key: string, invented: string) => {
       if (c === conflictTake.circuit && key === 'zs') return String((Number(c.cells.zs!.text) + 0.05).toFixed(2));
       if (c === conflictKeep.circuit && key === 'rcdTimeMs') return String(Number(c.cells.rcdTimeMs!.text) + 3);
-      return c.cells[key]?.text || invented;
+      return c.cells[key]?.text || invent(c, key, invented);
     };
     const lines = [['Circuit', ...columns.map(([h]) => h)].join(',')];
     for (const c of before) lines.push([phaseFirst(c.number), ...columns.map(([, key, invented]) => fileValue(c, key, invented))].map((v) => (v.includes(',') ? `"${v}"` : v)).join(','));
     const csv = Buffer.from(lines.join('\r\n') + '\r\n', 'utf8');
-    const expectedNew = before.flatMap((c) => columns.filter(([, key]) => !c.cells[key]?.text).map(([, key, invented]) => ({ id: c.id, key, text: invented })));
+    const expectedNew = before.flatMap((c) => columns.filter(([, key]) => !c.cells[key]?.text).map(([, key, invented]) => ({ id: c.id, key, text: invent(c, key, invented) })));
+    // Every circuit gets its 5 × IΔn time (or N/A); nothing else is new on the filled demo board.
+    expect(expectedNew.length).toBe(64);
 
     await page.getByRole('grid').focus();
     await page.keyboard.press('Alt+Shift+KeyI');

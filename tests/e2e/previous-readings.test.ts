@@ -13,7 +13,7 @@ const env = useDemoServerAndBrowser();
 describe('readings against last time', () => {
   it('when a report starts from an earlier job, then the console shows last time’s Zs and notes a rise of more than a fifth', async () => {
     const context = await env.browser.newContext();
-    expect((await context.request.post(`${env.server.url}/api/auth/sign-in`, { data: demoTester })).status()).toBe(200);
+    expect((await context.request.post(`${env.server.url}/api/auth/sign-in`, { data: demoTester, headers: { origin: env.server.url } })).status()).toBe(200);
 
     // An earlier demo board with a Zs on one of its circuits.
     const earlier = await pickPlainBoard(context, env.server.url);
@@ -29,6 +29,7 @@ describe('readings against last time', () => {
     // A new report on the same site, started from that job.
     const created = await context.request.post(`${env.server.url}/api/jobs`, {
       data: { siteId: detail.site.id, kind: 'EICR', visitDate: '2031-05-20', startFromJobId: detail.job.id },
+      headers: { origin: env.server.url },
     });
     expect(created.status()).toBe(201);
     const { job } = (await created.json()) as { job: { id: number } };

@@ -41,7 +41,8 @@ describe('signing and sending to the client', () => {
   it('when the reviewer draws a signature and later sends the issued job, then the signature is stored as a PNG and the message with the PDF arrives in the mailbox', async () => {
     const { db } = env.server;
     const job = await db.selectFrom('jobs').select(['id', 'site_id', 'reference']).where('kind', '=', 'EICR').orderBy('id').executeTakeFirstOrThrow();
-    await db.updateTable('jobs').set({ state: 'ready' }).where('id', '=', job.id).execute();
+    // The demo seeds the EICR ready for review (submitted and signed by the inspector).
+    expect((await db.selectFrom('jobs').select('state').where('id', '=', job.id).executeTakeFirstOrThrow()).state).toBe('ready');
     await db.updateTable('sites').set({ contact_name: 'Morwenna Tate', contact_email: 'morwenna@tate-lettings.example' }).where('id', '=', job.site_id).execute();
 
     const context = await env.browser.newContext();
@@ -66,14 +67,16 @@ describe('signing and sending to the client', () => {
     await signing.getByRole('button', { name: 'Sign as reviewer' }).click();
     await expect.poll(() => signing.getByRole('status').innerText(), { timeout: 10_000 }).toBe(`Signed as reviewer by ${typedName}.`);
 
-    const stored = await db.selectFrom('signatures').innerJoin('files', 'files.id', 'signatures.file_id').selectAll('files').where('signatures.job_id', '=', job.id).executeTakeFirstOrThrow();
+    const stored = await db.selectFrom('signatures').innerJoin('files', 'files.id', 'signatures.file_id').selectAll('files').where('signatures.job_id', '=', job.id).where('signatures.role', '=', 'reviewer').executeTakeFirstOrThrow();
     expect(stored.mime).toBe('image/png');
     const png = fs.readFileSync(path.join(env.server.dataDir, stored.path));
     expect(png.subarray(0, 8)).toEqual(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])); // PNG signature (ISO/IEC 15948)
     expect(sha256(png)).toBe(stored.sha256);
     // The drawn PNG is the pad's size, 600 × 200 (IHDR width and height, big-endian).
     expect([png.readUInt32BE(16), png.readUInt32BE(20)]).toEqual([600, 200]);
-    await page.getByRole('list', { name: 'Signatures in use' }).getByRole('img', { name: /^Signature of / }).waitFor();
+    await page.getByRole('list', { name: 'Signatures in use' }).getByRole('img', { name: `Signature of ${typedName}` }).waitFor();
+    // The inspector's signature seeded with the demo is shown beside it.
+    await page.getByRole('list', { name: 'Signatures in use' }).getByRole('img', { name: 'Signature of Callum Brierley' }).waitFor();
 
     // Issued (as the issue feature would leave it): a stored PDF, its revision and hash.
     const pdf = await makePdf();

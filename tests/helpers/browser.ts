@@ -51,7 +51,7 @@ export async function startDemoServer(): Promise<DemoServer> {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'boardwalk-e2e-'));
   const { db, sqlite } = openDatabase(path.join(dir, 'test.sqlite'));
   await migrateToLatest(db);
-  await seedDemo(db);
+  await seedDemo(db, { dataDir: dir });
   // The project's own mail server, as `npm start` runs it without SMTP_URL, on a free port.
   const mail = await startLocalMailServer({ dir: path.join(dir, 'mailbox'), port: 0 });
   const app = createApp({

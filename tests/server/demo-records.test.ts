@@ -1,3 +1,6 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
@@ -20,10 +23,14 @@ let eicr: JobDetail;
 beforeAll(async () => {
   const opened = openDatabase(':memory:');
   db = opened.db;
-  close = () => opened.sqlite.close();
   await migrateToLatest(db);
-  await seedDemo(db);
-  const app = asOwnPage(createApp({ db, sqlite: opened.sqlite, sessionSecret: 'demo-records-test', signInAttemptsPerMinute: 1000 }));
+  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'boardwalk-demo-records-'));
+  await seedDemo(db, { dataDir });
+  close = () => {
+    opened.sqlite.close();
+    fs.rmSync(dataDir, { recursive: true, force: true });
+  };
+  const app = asOwnPage(createApp({ db, sqlite: opened.sqlite, sessionSecret: 'demo-records-test', signInAttemptsPerMinute: 1000, dataDir }));
   agent = request.agent(app);
   expect((await agent.post('/api/auth/sign-in').send({ email: 'tester@boardwalk.test', password: demoPassword })).status).toBe(200);
   const jobs = await db.selectFrom('jobs').select(['id', 'kind']).execute();

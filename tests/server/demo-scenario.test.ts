@@ -1,3 +1,7 @@
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import bcrypt from 'bcryptjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openDatabase, type DB } from '../../server/db/database.ts';
@@ -5,6 +9,7 @@ import { migrateToLatest } from '../../server/db/migrate.ts';
 import { buildDemoScenario, demoAccounts, demoPassword, plantedFaults } from '../../server/db/seed/demo-scenario.ts';
 import { databaseHasUsers, seedDemo } from '../../server/db/seed/seed-demo.ts';
 import type { BoardRow, CellRow, CircuitRow } from '../../server/db/types.ts';
+import { reviewJob } from '../../server/review/review-service.ts';
 
 /** Conductor resistance at 20 °C (Ω/km), IEC 60228 Table 2 (class 2), typed here independently of the seed. */
 const iec60228OhmPerKm: Record<number, number> = { 1: 18.1, 1.5: 12.1, 2.5: 7.41, 4: 4.61, 6: 3.08, 10: 1.83, 16: 1.15 };
@@ -19,6 +24,7 @@ interface LoadedBoard extends BoardRow {
 
 let db: DB;
 let close: () => void;
+let dataDir: string;
 let boards: LoadedBoard[];
 
 async function loadBoards(): Promise<LoadedBoard[]> {
@@ -70,10 +76,14 @@ const threePhase = (): LoadedBoard => {
 beforeAll(async () => {
   const opened = openDatabase(':memory:');
   db = opened.db;
-  close = () => opened.sqlite.close();
+  dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'boardwalk-demo-seed-'));
+  close = () => {
+    opened.sqlite.close();
+    fs.rmSync(dataDir, { recursive: true, force: true });
+  };
   await migrateToLatest(db);
   expect(await databaseHasUsers(db)).toBe(false);
-  await seedDemo(db);
+  await seedDemo(db, { dataDir });
   boards = await loadBoards();
 });
 
@@ -142,16 +152,16 @@ describe('demo scenario seed', () => {
     expect(board.circuits.some((c) => c.kind === 'ring')).toBe(true);
   });
 
-  it('when the boards are read, then the single-phase board is filled and the three-phase board leaves cells to type', () => {
-    for (const c of singlePhase().circuits) {
-      for (const key of ['r1PlusR2', 'irTestVoltage', 'irLiveLive', 'irLiveEarth', 'polarity', 'zs', 'rcdTimeMs', 'rcdButton']) {
-        expect(c.cells.has(key), `${c.number} ${key}`).toBe(true);
+  it('when the boards are read, then every circuit of both boards has every reading a schedule needs', () => {
+    for (const board of boards) {
+      for (const c of board.circuits) {
+        // Common practice (BS 7671 model schedules): continuity, insulation, polarity and Zs on every
+        // circuit; the ring's ends on a ring; the RCD's time and button where there is an RCD.
+        const needed = ['r1PlusR2', 'irTestVoltage', 'irLiveLive', 'irLiveEarth', 'polarity', 'zs', 'rcdTimeMs', 'rcdButton', 'afddButton'];
+        if (c.kind === 'ring') needed.push('ringR1', 'ringRn', 'ringR2');
+        for (const key of needed) expect(c.cells.has(key), `${board.reference} ${c.number} ${key}`).toBe(true);
       }
     }
-    const three = threePhase();
-    expect(three.circuits.some((c) => c.cells.size === 0)).toBe(true);
-    expect(three.circuits.some((c) => c.cells.has('r1PlusR2') && !c.cells.has('zs'))).toBe(true);
-    expect(three.circuits.filter((c) => c.cells.has('zs')).length).toBeGreaterThan(20);
   });
 
   it('when the ring finals are read, then correct rings follow IEC 60228 ratios and (r1+r2)/4', () => {
@@ -198,6 +208,24 @@ describe('demo scenario seed', () => {
     }
   });
 
+  it('when a radial with its cable length is read, then R1+R2 lies between the cable at 20 °C and at 70 °C', () => {
+    let checked = 0;
+    for (const board of boards) {
+      for (const c of board.circuits.filter((x) => x.cable_length_m !== null && !isPlanted(board, x))) {
+        const r1PlusR2 = reading(c, 'r1PlusR2');
+        if (r1PlusR2 === null) continue;
+        checked += 1;
+        // Length × (line + cpc) per metre, IEC 60228 Table 2 at 20 °C; × 1.20 at 70 °C (thermoplastic,
+        // [memory: IET Guidance Note 3]); ± 0.01 Ω for the two decimals and the meter's last digit.
+        const perMetre = ((iec60228OhmPerKm[c.live_csa_mm2 ?? 0] ?? NaN) + (iec60228OhmPerKm[c.cpc_csa_mm2 ?? 0] ?? NaN)) / 1000;
+        const cold = (c.cable_length_m ?? 0) * perMetre;
+        expect(r1PlusR2, `${board.reference} ${c.number}`).toBeGreaterThanOrEqual(cold - 0.015);
+        expect(r1PlusR2, `${board.reference} ${c.number}`).toBeLessThanOrEqual(cold * 1.2 + 0.015);
+      }
+    }
+    expect(checked).toBeGreaterThan(40);
+  });
+
   it('when the readings are read, then radial R1+R2 and Zs hang together and RCD times are N/A only without an RCD', () => {
     for (const board of boards) {
       for (const c of board.circuits) {
@@ -235,6 +263,59 @@ describe('demo scenario seed', () => {
 
   it('when the scenario is built twice, then it is the same both times', () => {
     expect(buildDemoScenario()).toEqual(buildDemoScenario());
+  });
+});
+
+describe('the demo EICR, waiting for review', () => {
+  const eicrJob = () => db.selectFrom('jobs').selectAll().where('kind', '=', 'EICR').executeTakeFirstOrThrow();
+
+  it('when its findings are checked, then its only errors are the planted ones and nothing is left to do', async () => {
+    const job = await eicrJob();
+    const review = await reviewJob(db, job);
+    const numbers = new Map(boards.flatMap((b) => b.circuits.map((c) => [c.id, `${b.reference} ${c.number}`] as const)));
+    const errors = review.boards.flatMap((b) => b.findings.filter((f) => f.severity === 'error').map((f) => `${f.circuitId === null ? b.context.board.reference : numbers.get(f.circuitId)} ${f.code}`));
+    const planted = plantedFaults
+      .filter((f) => f.expectsFinding && boards.some((b) => b.job_id === job.id && b.reference === f.boardReference))
+      .map((f) => `${f.boardReference} ${f.circuitNumber}`);
+    expect(planted).toHaveLength(3);
+    expect(errors.map((e) => e.split(' ').slice(0, 2).join(' ')).sort()).toEqual([...planted].sort());
+    expect(errors.sort()).toEqual(['MDB-1 5L1 ir-below-minimum', 'MDB-1 6L1 zs-over-max', 'MDB-1 9L3 lim-without-reason']);
+    const todo = review.boards.flatMap((b) => b.findings.filter((f) => (f.severity as string) === 'todo'));
+    expect(todo).toEqual([]);
+    // And no warning either: the filled readings are consistent (the checker agrees, see the tests above).
+    expect(review.boards.flatMap((b) => b.findings.filter((f) => f.severity === 'warning'))).toEqual([]);
+    // The job record itself raises no error finding.
+    expect(review.jobFindings.filter((f) => f.severity === 'error')).toEqual([]);
+  });
+
+  it('when the jobs are read, then the EICR is ready for review with the tester’s note and the EIC is still being entered', async () => {
+    const tester = await db.selectFrom('users').select('id').where('email', '=', 'tester@boardwalk.test').executeTakeFirstOrThrow();
+    const jobs = await db.selectFrom('jobs').select(['id', 'kind', 'state', 'version']).orderBy('id').execute();
+    expect(jobs.map((j) => [j.kind, j.state])).toEqual([['EIC', 'entering'], ['EICR', 'ready']]);
+    const eicr = jobs.find((j) => j.kind === 'EICR')!;
+    const entries = await db.selectFrom('job_history').selectAll().where('job_id', '=', eicr.id).where('action', '=', 'state').execute();
+    expect(entries).toHaveLength(1);
+    expect(entries[0]).toMatchObject({ old_text: '"entering"', new_text: '"ready"', user_id: tester.id, version: eicr.version });
+    expect(entries[0]!.reason).toMatch(/9L3/);
+    const eic = jobs.find((j) => j.kind === 'EIC')!;
+    expect(await db.selectFrom('job_history').select('id').where('job_id', '=', eic.id).execute()).toEqual([]);
+    expect(await db.selectFrom('signatures').select('id').where('job_id', '=', eic.id).execute()).toEqual([]);
+  });
+
+  it('when its signatures are read, then the tester has signed as inspector with a PNG kept under the data folder and its SHA-256', async () => {
+    const job = await eicrJob();
+    const tester = await db.selectFrom('users').select(['id', 'name']).where('email', '=', 'tester@boardwalk.test').executeTakeFirstOrThrow();
+    const rows = await db.selectFrom('signatures').innerJoin('files', 'files.id', 'signatures.file_id').select(['signatures.role', 'signatures.name', 'signatures.user_id', 'files.path', 'files.sha256', 'files.mime', 'files.size_bytes', 'files.kind']).where('signatures.job_id', '=', job.id).execute();
+    expect(rows.map((r) => [r.role, r.name, r.user_id, r.kind, r.mime])).toEqual([['inspector', tester.name, tester.id, 'signature', 'image/png']]);
+    const bytes = fs.readFileSync(path.join(dataDir, rows[0]!.path));
+    expect(bytes.length).toBe(rows[0]!.size_bytes);
+    expect(crypto.createHash('sha256').update(bytes).digest('hex')).toBe(rows[0]!.sha256);
+    // PNG signature bytes and the IHDR chunk (ISO/IEC 15948): 600 × 200, 8-bit greyscale.
+    expect(bytes.subarray(0, 8)).toEqual(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]));
+    expect(bytes.subarray(12, 16).toString('ascii')).toBe('IHDR');
+    expect([bytes.readUInt32BE(16), bytes.readUInt32BE(20), bytes[24], bytes[25]]).toEqual([600, 200, 8, 0]);
+    const history = await db.selectFrom('job_history').selectAll().where('job_id', '=', job.id).where('action', '=', 'signed').execute();
+    expect(history.map((h) => h.field)).toEqual(['inspector']);
   });
 });
 

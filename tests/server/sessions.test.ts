@@ -52,6 +52,7 @@ describe('a password change ends the person’s other sessions', () => {
     const wrong = await here.post('/api/auth/password').send({ currentPassword: 'not it', newPassword: 'another long password' });
     expect(wrong.status).toBe(400);
     expect(wrong.body.error.message).toMatch(/current password is not right/);
+    expect(wrong.body.error.details).toEqual({ field: 'currentPassword' });
     const short = await here.post('/api/auth/password').send({ currentPassword: password, newPassword: 'short' });
     expect(short.status).toBe(400);
     expect(short.body.error.issues[0].path).toBe('newPassword');

@@ -9,6 +9,9 @@
  * shows, drawn from a seeded generator so every run produces the same data.
  *
  * A handful of faults are planted on purpose for the checker to find; `plantedFaults` lists them.
+ * The EIC (the house) is being entered; the EICR (the bakery) is complete apart from its planted
+ * faults and already submitted for review, signed by its inspector, so the demo reviewer can take
+ * it from review to an e-mailed PDF.
  */
 import type { CircuitFields } from '../../../shared/schemas/boards.ts';
 import { readingKeys, type CircuitKind, type ReadingKey } from '../../../shared/schemas/columns.ts';
@@ -70,7 +73,28 @@ export interface DemoBoard {
 }
 
 /** A demo job: its boards and its record (everything around the schedules, see demo-records.ts). */
-export type DemoJob = Pick<Job, 'kind' | 'reference' | 'visitDate' | 'limitations'> & { boards: DemoBoard[]; record: DemoJobRecord };
+/**
+ * A job the tester has already submitted for review: it is seeded ready for review, with the
+ * submission in the job's history and the inspector's signature (drawn in code, see
+ * signature-image.ts), so the demo reviewer starts where a reviewer's day starts.
+ */
+export interface DemoSubmission {
+  /** When the tester submitted it (ISO); the inspector signed at the same moment. */
+  at: string;
+  /** The tester's note to the reviewer. */
+  note: string;
+  /** Email of the demo account that submitted and signed as inspector. */
+  byEmail: string;
+  /** The name typed under the inspector's signature. */
+  inspectorName: string;
+}
+
+export type DemoJob = Pick<Job, 'kind' | 'reference' | 'visitDate' | 'limitations'> & {
+  boards: DemoBoard[];
+  record: DemoJobRecord;
+  /** Null: the job is being entered (a tester is still typing it). */
+  submitted: DemoSubmission | null;
+};
 
 export type DemoSite = Omit<Site, 'id' | 'version'> & { jobs: DemoJob[] };
 
@@ -454,65 +478,65 @@ const bakeryWays: readonly (readonly [WaySpec, WaySpec, WaySpec])[] = [
     { ...fixedRadial('Fire alarm panel', m10('B', 6), null, [1.5, 1.5], 12, 1, 'O', 'C'), remarks: 'Fire-resistant cable; labelled at the board.' },
   ],
   [
-    { ...fixedRadial('Emergency lighting (offices)', m10('B', 6), null, [1.5, 1.5], 40, 10, 'O', 'C'), fill: 'dead-tests' },
-    { ...fixedRadial('Emergency lighting (production)', m10('B', 6), null, [1.5, 1.5], 52, 12, 'O', 'C'), fill: 'dead-tests' },
-    { ...fixedRadial('Emergency lighting (shop and goods-in)', m10('B', 6), null, [1.5, 1.5], 44, 9, 'O', 'C'), fill: 'dead-tests' },
+    { ...fixedRadial('Emergency lighting (offices)', m10('B', 6), null, [1.5, 1.5], 40, 10, 'O', 'C') },
+    { ...fixedRadial('Emergency lighting (production)', m10('B', 6), null, [1.5, 1.5], 52, 12, 'O', 'C') },
+    { ...fixedRadial('Emergency lighting (shop and goods-in)', m10('B', 6), null, [1.5, 1.5], 44, 9, 'O', 'C') },
   ],
   [
-    { ...fixedRadial('Intruder alarm and CCTV', m10('B', 6), null, [1.5, 1], 16, 2), fill: 'dead-tests' },
-    { ...fixedRadial('Door entry and access control', m10('B', 6), null, [1.5, 1], 24, 3), fill: 'dead-tests' },
-    { ...fixedRadial('Comms cabinet', r10('B', 16), 'A', [2.5, 1.5], 14, 2), fill: 'dead-tests' },
+    { ...fixedRadial('Intruder alarm and CCTV', m10('B', 6), null, [1.5, 1], 16, 2) },
+    { ...fixedRadial('Door entry and access control', m10('B', 6), null, [1.5, 1], 24, 3) },
+    { ...fixedRadial('Comms cabinet', r10('B', 16), 'A', [2.5, 1.5], 14, 2) },
   ],
   [
-    { ...fixedRadial('Air conditioning (offices)', m10('C', 16), null, [2.5, 1.5], 22), fill: 'dead-tests' },
-    { ...fixedRadial('Air conditioning (shop)', m10('C', 16), null, [2.5, 1.5], 28), fill: 'dead-tests' },
-    { ...fixedRadial('Air conditioning (meeting room)', m10('C', 16), null, [2.5, 1.5], 18), fill: 'dead-tests' },
+    { ...fixedRadial('Air conditioning (offices)', m10('C', 16), null, [2.5, 1.5], 22) },
+    { ...fixedRadial('Air conditioning (shop)', m10('C', 16), null, [2.5, 1.5], 28) },
+    { ...fixedRadial('Air conditioning (meeting room)', m10('C', 16), null, [2.5, 1.5], 18) },
   ],
   [
-    { ...fixedRadial('Bakery extract fan', m10('C', 16), null, [2.5, 2.5], 26, 1, 'B', 'B'), fill: 'dead-tests' },
-    { ...fixedRadial('Bread conveyor', m10('D', 10), null, [2.5, 2.5], 20, 1, 'B', 'B'), fill: 'dead-tests' },
-    { ...fixedRadial('Cold room evaporator', m10('C', 16), null, [2.5, 2.5], 30, 1, 'B', 'B'), fill: 'dead-tests' },
+    { ...fixedRadial('Bakery extract fan', m10('C', 16), null, [2.5, 2.5], 26, 1, 'B', 'B') },
+    { ...fixedRadial('Bread conveyor', m10('D', 10), null, [2.5, 2.5], 20, 1, 'B', 'B') },
+    { ...fixedRadial('Cold room evaporator', m10('C', 16), null, [2.5, 2.5], 30, 1, 'B', 'B') },
   ],
   [
-    { ...fixedRadial('Blast chiller', m10('C', 20), null, [4, 4], 24, 1, 'B', 'B'), fill: 'dead-tests' },
-    { ...fixedRadial('Ice machine', r10('C', 16), 'A', [2.5, 2.5], 22, 1, 'B', 'B'), fill: 'dead-tests' },
-    { ...fixedRadial('Wash-up sockets', r10('B', 20), 'A', [2.5, 2.5], 26, 4, 'B', 'B'), fill: 'dead-tests' },
+    { ...fixedRadial('Blast chiller', m10('C', 20), null, [4, 4], 24, 1, 'B', 'B') },
+    { ...fixedRadial('Ice machine', r10('C', 16), 'A', [2.5, 2.5], 22, 1, 'B', 'B') },
+    { ...fixedRadial('Wash-up sockets', r10('B', 20), 'A', [2.5, 2.5], 26, 4, 'B', 'B') },
   ],
   [
-    { ...fixedRadial('Dishwasher (staff room)', r10('B', 16), 'A', [2.5, 1.5], 16), fill: 'dead-tests' },
-    { ...fixedRadial('Water heater (staff room)', r10('B', 16), 'A', [2.5, 1.5], 14), fill: 'dead-tests' },
-    { ...fixedRadial('Boiler and hot-water pump', r10('B', 6), 'A', [1.5, 1], 20, 2), fill: 'dead-tests' },
+    { ...fixedRadial('Dishwasher (staff room)', r10('B', 16), 'A', [2.5, 1.5], 16) },
+    { ...fixedRadial('Water heater (staff room)', r10('B', 16), 'A', [2.5, 1.5], 14) },
+    { ...fixedRadial('Boiler and hot-water pump', r10('B', 6), 'A', [1.5, 1], 20, 2) },
   ],
   [
-    { ...fixedRadial('Car park lighting', m10('B', 10), null, [2.5, 2.5], 60, 6, 'G', 'D'), remarks: '3-core SWA; cpc is the third core.', fill: 'none' },
-    { ...lighting('Yard security lighting', 6, 4, 32), fill: 'none' },
-    { ...fixedRadial('Roller shutter, despatch door', m10('C', 10), null, [1.5, 1], 22), fill: 'none' },
+    { ...fixedRadial('Car park lighting', m10('B', 10), null, [2.5, 2.5], 60, 6, 'G', 'D'), remarks: '3-core SWA; cpc is the third core.' },
+    { ...lighting('Yard security lighting', 6, 4, 32) },
+    { ...fixedRadial('Roller shutter, despatch door', m10('C', 10), null, [1.5, 1], 22) },
   ],
   [
-    { ...lighting('Warehouse lighting', 10, 10, 46, true), fill: 'none' },
-    { ...singlesRing('Warehouse sockets', 8, 66, 'B'), fill: 'none' },
-    { ...lighting('Mezzanine lighting', 6, 6, 30), fill: 'none' },
+    { ...lighting('Warehouse lighting', 10, 10, 46, true) },
+    { ...singlesRing('Warehouse sockets', 8, 66, 'B') },
+    { ...lighting('Mezzanine lighting', 6, 6, 30) },
   ],
   [
-    { ...officeRing('Despatch office sockets', 8, 40, 'A'), fill: 'none' },
-    { ...fixedRadial('Printer and copier', r10('B', 20), 'A', [2.5, 1.5], 18, 2), fill: 'none' },
-    { ...fixedRadial('Server cupboard air conditioning', m10('C', 16), null, [2.5, 1.5], 22), fill: 'none' },
+    { ...officeRing('Despatch office sockets', 8, 42, 'A') },
+    { ...fixedRadial('Printer and copier', r10('B', 20), 'A', [2.5, 1.5], 18, 2) },
+    { ...fixedRadial('Server cupboard air conditioning', m10('C', 16), null, [2.5, 1.5], 22) },
   ],
   [
-    { ...fixedRadial("Cleaners' store sockets", r10('B', 16), 'A', [2.5, 1.5], 20, 2), fill: 'none' },
-    { ...fixedRadial('Vending machines (staff room)', r10('B', 20), 'A', [2.5, 1.5], 24, 2), fill: 'none' },
-    { ...fixedRadial('Display oven (shop)', r10('B', 32), 'A', [6, 2.5], 18), fill: 'none' },
+    { ...fixedRadial("Cleaners' store sockets", r10('B', 16), 'A', [2.5, 1.5], 20, 2) },
+    { ...fixedRadial('Vending machines (staff room)', r10('B', 20), 'A', [2.5, 1.5], 24, 2) },
+    { ...fixedRadial('Display oven (shop)', r10('B', 32), 'A', [6, 2.5], 18) },
   ],
   [
     {
       ...fixedRadial('Sub-main to DB-3 (yard store)', fuse(32), null, [6, 6], 40, null, 'G', 'D'),
-      kind: 'distribution', maxDisconnectionS: 5, remarks: '3-core SWA; cpc is the third core.', fill: 'none',
+      kind: 'distribution', maxDisconnectionS: 5, remarks: '3-core SWA; cpc is the third core.',
     },
     {
       ...fixedRadial('Sub-main to DB-4 (despatch)', fuse(40), null, [10, 10], 30, null, 'G', 'E'),
-      kind: 'distribution', maxDisconnectionS: 5, remarks: '3-core SWA; cpc is the third core.', fill: 'none',
+      kind: 'distribution', maxDisconnectionS: 5, remarks: '3-core SWA; cpc is the third core.',
     },
-    { ...fixedRadial('Yard socket pillar (32 A)', r10('C', 32), 'A', [6, 6], 20, 1, 'G', 'D'), fill: 'none' },
+    { ...fixedRadial('Yard socket pillar (32 A)', r10('C', 32), 'A', [6, 6], 20, 1, 'G', 'D') },
   ],
 ];
 
@@ -528,11 +552,11 @@ const bakeryThreePhaseWays: readonly CircuitSpec[] = [
   },
   {
     number: '23TP', phase: 'TP', description: 'Spiral dough mixer', kind: 'radial', wiring: 'G', referenceMethod: 'C', points: 1,
-    live: 4, cpc: 4, maxDisconnectionS: 0.4, device: m10('D', 20), rcd: null, afdd: false, lengthM: 14, fill: 'dead-tests',
+    live: 4, cpc: 4, maxDisconnectionS: 0.4, device: m10('D', 20), rcd: null, afdd: false, lengthM: 14, fill: 'full',
   },
   {
     number: '24TP', phase: 'TP', description: 'Air compressor', kind: 'radial', wiring: 'G', referenceMethod: 'C', points: 1,
-    live: 4, cpc: 4, maxDisconnectionS: 0.4, device: m10('C', 20), rcd: null, afdd: false, lengthM: 22, fill: 'none',
+    live: 4, cpc: 4, maxDisconnectionS: 0.4, device: m10('C', 20), rcd: null, afdd: false, lengthM: 22, fill: 'full',
   },
 ];
 
@@ -766,6 +790,7 @@ export function buildDemoScenario(): DemoScenario {
               'disconnected; recorded against each circuit.',
             boards: [buildBoard(houseBoard)],
             record: houseEicRecord,
+            submitted: null,
           },
         ],
       },
@@ -792,6 +817,16 @@ export function buildDemoScenario(): DemoScenario {
               '(first-floor offices) reported separately.',
             boards: [buildBoard(bakeryBoard)],
             record: bakeryEicrRecord,
+            // Submitted the morning after the visit, once the board was typed up from the site sheets.
+            submitted: {
+              at: '2026-11-25T09:40:00.000Z',
+              note:
+                'MDB-1 typed up from the site sheets. 6L1 Zs over the limit is observation 3 (C2); 5L1 low ' +
+                'insulation is observation 10 (FI). 9L3: the fire alarm panel could not be isolated during trading, ' +
+                'so L–L was not tested; I left that reason off the LIM.',
+              byEmail: 'tester@boardwalk.test',
+              inspectorName: 'Callum Brierley',
+            },
           },
         ],
       },

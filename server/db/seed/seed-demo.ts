@@ -3,7 +3,9 @@ import type { Insertable, Transaction } from 'kysely';
 import type { DB } from '../database.ts';
 import type { CellTable, Database } from '../types.ts';
 import { jobSectionKeySchema, jobSectionSchemas, type JobSectionKey } from '../../../shared/schemas/job-record.ts';
+import { FileStore } from '../../files.ts';
 import { buildDemoScenario, demoPassword, type DemoBoard, type DemoJob } from './demo-scenario.ts';
+import { demoSignaturePng } from './signature-image.ts';
 
 /** bcrypt work factor for the demo accounts. */
 const bcryptCost = 10;
@@ -21,13 +23,20 @@ export async function databaseHasUsers(db: DB): Promise<boolean> {
  *
  * Seeded cells get no history rows: history records the changes people make after the starting
  * state, and the seed *is* the starting state. Every cell is version 1, typed by the tester.
+ *
+ * A job the scenario marks as submitted (the EICR) is seeded ready for review: a job history
+ * entry of its submission with the tester's note (the one people make through the job screen,
+ * so the review queue shows who and when), and the inspector's signature, a PNG drawn in code
+ * and stored under `dataDir` like any uploaded signature.
  */
-export async function seedDemo(db: DB): Promise<void> {
+export async function seedDemo(db: DB, options: { dataDir: string }): Promise<void> {
+  const files = new FileStore(options.dataDir);
+  const storedPaths: string[] = [];
   const scenario = buildDemoScenario();
   // Hash before the transaction opens: bcrypt is slow on purpose, and the write lock need not wait.
   const hashes = await Promise.all(scenario.users.map(() => bcrypt.hash(demoPassword, bcryptCost)));
 
-  await db.transaction().execute(async (trx) => {
+  const seeded = db.transaction().execute(async (trx) => {
     const userIds = new Map<string, number>();
     for (const [index, user] of scenario.users.entries()) {
       const { id } = await trx
@@ -73,6 +82,11 @@ export async function seedDemo(db: DB): Promise<void> {
         const boards = new Map<string, { id: number; circuits: Map<string, number> }>();
         for (const board of job.boards) boards.set(board.reference, await insertBoard(trx, jobId, board, typistId));
         await insertRecord(trx, jobId, job, boards, typistId);
+        if (job.submitted) {
+          const submitterId = userIds.get(job.submitted.byEmail);
+          if (submitterId === undefined) throw new Error(`The demo submitter ${job.submitted.byEmail} is not among the demo users`);
+          await submitJob(trx, files, storedPaths, jobId, job.submitted, submitterId);
+        }
       }
     }
 
@@ -83,6 +97,73 @@ export async function seedDemo(db: DB): Promise<void> {
       .onConflict((oc) => oc.column('key').doNothing())
       .execute();
   });
+  await seeded.catch((error: unknown) => {
+    // The rows went with the rolled-back transaction; the signature bytes go too.
+    for (const stored of storedPaths) files.remove(stored);
+    throw error;
+  });
+}
+
+/**
+ * Seeds a job as the tester leaves it on submitting: ready for review, the submission in the job
+ * history with the note, and the inspector's signature (file row, bytes on disk, signature row and
+ * its history entry, as `POST /api/jobs/:jobId/signatures` writes them).
+ */
+async function submitJob(
+  trx: Transaction<Database>,
+  files: FileStore,
+  storedPaths: string[],
+  jobId: number,
+  submitted: NonNullable<DemoJob['submitted']>,
+  userId: number,
+): Promise<void> {
+  const file = await files.save(trx, {
+    kind: 'signature',
+    bytes: demoSignaturePng(jobId),
+    mime: 'image/png',
+    originalName: 'signature-inspector.png',
+    jobId,
+    uploadedBy: userId,
+  });
+  storedPaths.push(file.path);
+  const signature = await trx
+    .insertInto('signatures')
+    .values({ job_id: jobId, role: 'inspector', name: submitted.inspectorName, file_id: file.id, user_id: userId, signed_at: submitted.at })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  await trx
+    .insertInto('job_history')
+    .values({
+      job_id: jobId,
+      section: 'declaration',
+      field: 'inspector',
+      action: 'signed',
+      old_text: null,
+      new_text: JSON.stringify({ signatureId: signature.id, name: submitted.inspectorName, fileId: file.id, sha256: file.sha256 }),
+      reason: null,
+      user_id: userId,
+      at: submitted.at,
+      version: null,
+    })
+    .execute();
+
+  // The state change as setJobState records it (server/db/review.ts): version 1 → 2.
+  await trx.updateTable('jobs').set({ state: 'ready', version: 2 }).where('id', '=', jobId).execute();
+  await trx
+    .insertInto('job_history')
+    .values({
+      job_id: jobId,
+      section: null,
+      field: 'state',
+      action: 'state',
+      old_text: JSON.stringify('entering'),
+      new_text: JSON.stringify('ready'),
+      reason: submitted.note,
+      user_id: userId,
+      at: submitted.at,
+      version: 2,
+    })
+    .execute();
 }
 
 /**

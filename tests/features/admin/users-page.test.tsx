@@ -53,6 +53,18 @@ describe('users page', () => {
     expect(calls.filter((c) => c.method === 'PATCH').map((c) => c.body)).toEqual([{ active: false }, { active: true }]);
   });
 
+  it('when an admin sets a new password from the keyboard, then it is sent and the row says the person was signed out everywhere', async () => {
+    const calls = stubUsersApi();
+    const { user } = renderWithProviders(<UsersPage />);
+    const row = (await screen.findByRole('rowheader', { name: 'Tess Tester' })).closest('tr')!;
+    within(row).getByRole('button', { name: 'New password…' }).focus();
+    await user.keyboard('{Enter}');
+    expect(within(row).getByLabelText('New password for Tess Tester')).toHaveFocus();
+    await user.keyboard('a fresh long secret{Enter}');
+    expect(await within(row).findByText('New password set; Tess Tester was signed out everywhere.')).toBeInTheDocument();
+    expect(calls.find((c) => c.method === 'PATCH')?.body).toEqual({ password: 'a fresh long secret' });
+  });
+
   it('when the admin keeps the person active, then nothing is sent', async () => {
     const calls = stubUsersApi();
     const { user } = renderWithProviders(<UsersPage />);

@@ -1,4 +1,6 @@
+import fs from 'node:fs';
 import os from 'node:os';
+import path from 'node:path';
 import * as fontkit from 'fontkit';
 import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -157,11 +159,14 @@ describe('the issued PDF of an EICR', () => {
 describe('the issued PDF of the demo EICR', () => {
   it('when rendered, then every circuit of every board is there with all its readings in column order, and every page is numbered', async () => {
     const { db, sqlite } = openDatabase(':memory:');
+    const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'boardwalk-pdf-demo-'));
     try {
       await migrateToLatest(db);
-      await seedDemo(db);
+      await seedDemo(db, { dataDir });
       const eicr = await db.selectFrom('jobs').select('id').where('kind', '=', 'EICR').executeTakeFirstOrThrow();
-      const document = (await loadJobDocument(db, eicr.id, os.tmpdir()))!;
+      const document = (await loadJobDocument(db, eicr.id, dataDir))!;
+      // The seeded inspector's signature (drawn in code) is read back from the data folder.
+      expect(document.signatures.map((s) => [s.role, s.image?.mime])).toEqual([['inspector', 'image/png']]);
       const pdf = await renderJobPdf(document, { revision: 1, issuedAt: new Date('2026-12-02T10:00:00.000Z'), issuedBy: 'Demo Reviewer' });
       const parser = new PDFParse({ data: new Uint8Array(pdf) });
       const { pages, text } = await parser.getText();
@@ -185,6 +190,7 @@ describe('the issued PDF of the demo EICR', () => {
       expect(all).toContain('safe isolation');
     } finally {
       sqlite.close();
+      fs.rmSync(dataDir, { recursive: true, force: true });
     }
   });
 });

@@ -1,6 +1,7 @@
 import { useUsers } from '../api/get-users.ts';
 import { AccountSwitch } from './account-switch.tsx';
 import { CreateUserForm } from './create-user-form.tsx';
+import { PasswordReset } from './password-reset.tsx';
 import { RoleChanger } from './role-changer.tsx';
 
 /** Admins only: everyone with an account and their role, and a form to add someone. */
@@ -43,8 +44,9 @@ export function UsersPage() {
                   <td className="px-3 py-1">
                     <RoleChanger user={user} />
                   </td>
-                  <td className="px-3 py-1">
+                  <td className="space-y-1 px-3 py-1">
                     <AccountSwitch user={user} />
+                    <PasswordReset user={user} />
                   </td>
                 </tr>
               ))}
