@@ -16,7 +16,7 @@ const ringBoard = () =>
 
 describe('a ring’s socket-by-socket readings', () => {
   it('when the L-cpc readings are typed socket by socket, then the plot and a sound diagnosis show, and Alt+Enter saves them and records the highest as R1+R2', async () => {
-    const fetchMock = vi.fn(async (url: string, init?: RequestInit) => {
+    const fetchMock = vi.fn(async (_url: string, init?: RequestInit) => {
       if (!init || init.method === undefined || init.method === 'GET') return jsonResponse({ sockets: [], version: 0 });
       const body = JSON.parse(String(init.body));
       return jsonResponse({ sockets: body.sockets, version: 1 });
