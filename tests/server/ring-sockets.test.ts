@@ -1,3 +1,4 @@
+import Papa from 'papaparse';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app.ts';
 
@@ -47,5 +48,27 @@ describe('ring sockets over HTTP', () => {
     expect(notRing.body.error.message).toMatch(/not a ring final circuit/);
     expect((await agent.put(url(ring)).send({ version: 0, sockets: [{ label: 'x' }] })).status).toBe(400);
     expect((await agent.get(url(ring))).body.version).toBe(0);
+  });
+});
+
+describe('ring sockets in the CSV export', () => {
+  it('when a ring has socket readings, then the board’s CSV lists them after the circuits, read back with papaparse', async () => {
+    const agent = await t.signIn('tester');
+    await agent.put(url(ring)).send({ version: 0, sockets });
+    const res = await agent.get(`/api/boards/${t.ids.board}/export.csv`).buffer(true).parse((response, callback) => {
+      const chunks: Buffer[] = [];
+      response.on('data', (chunk: Buffer) => chunks.push(chunk));
+      response.on('end', () => callback(null, Buffer.concat(chunks)));
+    });
+    expect(res.status).toBe(200);
+    const rows = Papa.parse<string[]>((res.body as Buffer).toString('utf8').slice(1), { skipEmptyLines: true }).data;
+    const at = rows.findIndex((r) => r[0] === 'Ring socket readings');
+    expect(at).toBeGreaterThan(0);
+    expect(rows[at + 1]).toEqual(['Circuit', 'Socket', 'Label', 'Position along the ring (0–1)', 'L-N (Ω)', 'L-cpc (Ω)']);
+    const ringNumber = (await t.db.selectFrom('circuits').select('number').where('id', '=', ring).executeTakeFirstOrThrow()).number;
+    expect(rows.slice(at + 2, at + 4)).toEqual([
+      [ringNumber, '1', 'hall', '', '0.26', '0.33'],
+      [ringNumber, '2', 'lounge', '', '0.27', '0.34'],
+    ]);
   });
 });
