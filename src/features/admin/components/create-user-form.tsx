@@ -9,9 +9,9 @@ type Field = (typeof fields)[number];
 
 /** What each role may do, shown next to the choice. */
 const roleDescriptions: Record<Role, string> = {
-  tester: 'enters and edits readings',
-  reviewer: 'also locks, unlocks and issues',
-  admin: 'manages people and company details',
+  tester: 'types readings and the job record, and signs for the work they did',
+  reviewer: 'also accepts findings, locks and unlocks boards, approves, signs as reviewer, issues and sends',
+  admin: 'also manages people and the company details',
 };
 
 const inputClass =
