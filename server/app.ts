@@ -31,6 +31,7 @@ import { reviewRoutes } from './routes/review.ts';
 import { signatureRoutes } from './routes/signatures.ts';
 import { importRoutes } from './routes/imports.ts';
 import { photoRoutes } from './routes/photos.ts';
+import { ringSocketRoutes } from './routes/ring-sockets.ts';
 import { siteRoutes } from './routes/sites.ts';
 import { userRoutes } from './routes/users.ts';
 
@@ -215,6 +216,7 @@ export function createApp(options: AppOptions): Express {
   api.use('/', exportRoutes(db));
   api.use('/', importRoutes(db));
   api.use('/', photoRoutes(db, files));
+  api.use('/', ringSocketRoutes(db));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -47,3 +47,18 @@ export function cellHistoryQuery(db: DB, circuitId: number, columnKey: string) {
 export function cellHistory(db: DB, circuitId: number, columnKey: string) {
   return cellHistoryQuery(db, circuitId, columnKey).execute();
 }
+
+/**
+ * A board's history, newest first (at most `limit` rows): every cell, detail, circuit and board
+ * change, lock and unlock (with its reason). Filtered by person and by column when asked.
+ */
+export function boardHistory(db: DB, boardId: number, filter: { userId?: number; column?: string; limit: number }) {
+  let query = db
+    .selectFrom('history')
+    .leftJoin('circuits', 'circuits.id', 'history.circuit_id')
+    .select(['history.id', 'history.circuit_id', 'circuits.number as circuit_number', 'history.column_key', 'history.action', 'history.old_text', 'history.new_text', 'history.user_id', 'history.at', 'history.how'])
+    .where('history.board_id', '=', boardId);
+  if (filter.userId !== undefined) query = query.where('history.user_id', '=', filter.userId);
+  if (filter.column !== undefined) query = query.where('history.column_key', '=', filter.column);
+  return query.orderBy('history.id', 'desc').limit(filter.limit).execute();
+}

@@ -28,6 +28,7 @@ export const circuitFieldColumns = {
   spurRingId: 'spur_ring_id',
   spurOriginPoint: 'spur_origin_point',
   spurLengthM: 'spur_length_m',
+  spurProtection: 'spur_protection',
   maxZsByHandOhm: 'max_zs_by_hand_ohm',
 } as const satisfies Record<keyof CircuitFields, keyof CircuitRow>;
 
@@ -131,6 +132,7 @@ export function toCircuit(row: CircuitRow, cellRows: readonly CellRow[], names: 
     spurRingId: row.spur_ring_id,
     spurOriginPoint: row.spur_origin_point,
     spurLengthM: row.spur_length_m,
+    spurProtection: row.spur_protection ?? null,
     maxZsByHandOhm: row.max_zs_by_hand_ohm,
     cells,
   };

@@ -3,6 +3,7 @@ import type { CreateSiteBody, SiteFields } from '../../shared/schemas/sites.ts';
 import type { DB } from './database.ts';
 import { sameValue, stableJson } from './json-values.ts';
 import type { SiteRow, SiteTable } from './types.ts';
+import { requiredProgress, type ProgressCircuit } from '../../shared/readings/required-progress.ts';
 import type { Insertable, Updateable } from 'kysely';
 
 export function listSites(db: DB) {
@@ -100,7 +101,7 @@ export async function updateSite(
 }
 
 /** Every board (or one job's boards) with its site, job, circuit count and filled reading cells. */
-export function listBoardSummaries(db: DB, jobId?: number) {
+export async function listBoardSummaries(db: DB, jobId?: number) {
   let query = db
     .selectFrom('boards')
     .innerJoin('jobs', 'jobs.id', 'boards.job_id')
@@ -131,7 +132,40 @@ export function listBoardSummaries(db: DB, jobId?: number) {
         .as('cells_filled'),
     ]);
   if (jobId !== undefined) query = query.where('boards.job_id', '=', jobId);
-  return query.orderBy('sites.client').orderBy('jobs.visit_date', 'desc').orderBy('boards.reference').execute();
+  const rows = await query.orderBy('sites.client').orderBy('jobs.visit_date', 'desc').orderBy('boards.reference').execute();
+  const progress = await readingProgressByBoard(db, rows.map((r) => r.id));
+  return rows.map((r) => ({ ...r, readings: progress.get(r.id) ?? { required: 0, done: 0 } }));
+}
+
+/**
+ * The readings each board's circuits need and how many hold a value (`requiredProgress`), read in
+ * two queries for all the boards listed: their circuits, and their reading cells holding text.
+ */
+async function readingProgressByBoard(db: DB, boardIds: readonly number[]): Promise<Map<number, { required: number; done: number }>> {
+  const result = new Map<number, { required: number; done: number }>();
+  if (boardIds.length === 0) return result;
+  const circuits = await db.selectFrom('circuits').select(['id', 'board_id', 'kind', 'rcd_type', 'afdd']).where('board_id', 'in', [...boardIds]).execute();
+  const cells = await db
+    .selectFrom('cells')
+    .innerJoin('circuits', 'circuits.id', 'cells.circuit_id')
+    .select(['cells.circuit_id', 'cells.column_key'])
+    .where('circuits.board_id', 'in', [...boardIds])
+    .where('cells.text', '!=', '')
+    .execute();
+  const filled = new Map<number, Set<string>>();
+  for (const cell of cells) {
+    let set = filled.get(cell.circuit_id);
+    if (!set) filled.set(cell.circuit_id, (set = new Set()));
+    set.add(cell.column_key);
+  }
+  const byBoard = new Map<number, ProgressCircuit[]>();
+  for (const c of circuits) {
+    let list = byBoard.get(c.board_id);
+    if (!list) byBoard.set(c.board_id, (list = []));
+    list.push({ kind: c.kind, rcdType: c.rcd_type, afdd: c.afdd, filled: filled.get(c.id) ?? new Set() });
+  }
+  for (const [boardId, list] of byBoard) result.set(boardId, requiredProgress(list));
+  return result;
 }
 
 export function toBoardSummary(r: Awaited<ReturnType<typeof listBoardSummaries>>[number]): BoardSummary {
@@ -143,6 +177,8 @@ export function toBoardSummary(r: Awaited<ReturnType<typeof listBoardSummaries>>
     state: r.state,
     circuitCount: Number(r.circuit_count ?? 0),
     cellsFilled: Number(r.cells_filled ?? 0),
+    readingsRequired: r.readings.required,
+    readingsDone: r.readings.done,
     site: { id: r.site_id, client: r.site_client, address: r.site_address },
     job: { id: r.job_id, kind: r.job_kind, reference: r.job_reference },
   };

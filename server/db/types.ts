@@ -126,6 +126,7 @@ export interface CircuitTable {
   spur_ring_id: number | null;
   spur_origin_point: string | null;
   spur_length_m: number | null;
+  spur_protection: 'fused' | 'unfused' | null;
   max_zs_by_hand_ohm: number | null;
   previous_circuit_id: number | null;
   version: Generated<number>;
@@ -145,6 +146,16 @@ export interface CellTable {
  * One change of any kind. `action` says what: `cell` (a reading), `field` (a circuit detail),
  * `circuit-created`, `circuit-removed`, `reordered`, `board` (a board detail), `locked`, `unlocked`.
  */
+/** A ring's socket-by-socket readings (migration 2026-12-02T0260-ring-sockets.ts). */
+export interface RingSocketsTable {
+  circuit_id: number;
+  /** JSON: the sockets in ring order (`ringSocketsSchema`). */
+  data: string;
+  version: number;
+  updated_by: number | null;
+  updated_at: string;
+}
+
 export interface HistoryTable {
   id: Generated<number>;
   board_id: number;
@@ -253,6 +264,7 @@ export interface Database {
   circuits: CircuitTable;
   cells: CellTable;
   history: HistoryTable;
+  ring_sockets: RingSocketsTable;
   app_settings: AppSettingTable;
   files: FileTable;
   import_mappings: ImportMappingTable;

@@ -4,6 +4,8 @@ import {
   reorderCircuitsBodySchema,
   unlockBoardBodySchema,
   updateBoardBodySchema,
+  boardHistoryQuerySchema,
+  boardHistoryResponseSchema,
   updateCircuitBodySchema,
   writeCellBodySchema,
 } from '../../shared/schemas/boards.ts';
@@ -13,7 +15,7 @@ import { findBoardRow, loadBoard, loadCircuits, circuitOrder, setBoardLock, upda
 import { writeCell } from '../db/cells.ts';
 import { createCircuit, deleteCircuit, findCircuitRow, reorderCircuits, updateCircuit } from '../db/circuits.ts';
 import type { DB } from '../db/database.ts';
-import { cellHistory, latestCursor } from '../db/history.ts';
+import { boardHistory, cellHistory, latestCursor } from '../db/history.ts';
 import { toCell, toJob } from '../db/mappers.ts';
 import type { BoardRow } from '../db/types.ts';
 import { userNames } from '../db/users.ts';
@@ -265,6 +267,32 @@ export function boardRoutes(db: DB, presence: PresenceTracker): Router {
       findings: await boardFindings(boardId, circuitId),
       cursor: result.cursor || (await latestCursor(db, boardId)),
     });
+  });
+
+  router.get('/:boardId/history', async (req, res) => {
+    const boardId = idParam(req, 'boardId');
+    if (!(await findBoardRow(db, boardId))) throw notFound(`Board ${boardId}`);
+    const query = boardHistoryQuerySchema.parse(req.query);
+    const names = await userNames(db);
+    const rows = await boardHistory(db, boardId, { userId: query.person, column: query.column, limit: 500 });
+    const everyone = await db.selectFrom('history').select('user_id').distinct().where('board_id', '=', boardId).where('user_id', 'is not', null).execute();
+    res.json(
+      boardHistoryResponseSchema.parse({
+        history: rows.map((r) => ({
+          id: r.id,
+          circuitId: r.circuit_id,
+          circuitNumber: r.circuit_number ?? null,
+          column: r.column_key,
+          action: r.action,
+          oldText: r.old_text,
+          newText: r.new_text,
+          by: r.user_id ? { id: r.user_id, name: names.get(r.user_id) ?? 'former user' } : null,
+          at: r.at,
+          how: r.how,
+        })),
+        people: everyone.map((p) => ({ id: p.user_id!, name: names.get(p.user_id!) ?? 'former user' })),
+      }),
+    );
   });
 
   router.get('/:boardId/circuits/:circuitId/cells/:column/history', async (req, res) => {

@@ -8,6 +8,7 @@ import type { DB } from '../db/database.ts';
 import { toJob, toSite } from '../db/mappers.ts';
 import { notFound } from '../http-error.ts';
 import { loadJobRecord } from '../db/job-sections.ts';
+import { ringSocketsSchema } from '../../shared/schemas/ring-sockets.ts';
 import { idParam } from './params.ts';
 
 /** A column's heading in the CSV: the trade's label with its unit, e.g. "Zs (Ω)". */
@@ -59,6 +60,16 @@ export function exportRoutes(db: DB): Router {
       ['Circuit', 'Phase', ...columns.map(csvHeading), 'LIM reasons'],
       ...circuits.map((c) => [c.number, c.phase ?? '', ...columns.map((col) => csvValue(c, col)), limReasons(c)]),
     ];
+    // Rings' socket-by-socket readings (steps 2 and 3 of the ring test), when any were typed.
+    const ringRows = circuits.length === 0 ? [] : await db.selectFrom('ring_sockets').select(['circuit_id', 'data']).where('circuit_id', 'in', circuits.map((c) => c.id)).execute();
+    const socketRows: string[][] = [];
+    for (const c of circuits) {
+      const stored = ringRows.find((r) => r.circuit_id === c.id);
+      const sockets = stored ? ringSocketsSchema.safeParse(JSON.parse(stored.data)) : null;
+      if (!sockets?.success) continue;
+      sockets.data.forEach((s, i) => socketRows.push([c.number, String(i + 1), s.label, s.position === null ? '' : String(s.position), s.lineNeutral, s.lineCpc]));
+    }
+    if (socketRows.length > 0) rows.push([], ['Ring socket readings'], ['Circuit', 'Socket', 'Label', 'Position along the ring (0–1)', 'L-N (Ω)', 'L-cpc (Ω)'], ...socketRows);
     // A byte-order mark so spreadsheet programs read the file as UTF-8 (Ω, ✓, mm²). Cells that
     // begin like a formula are escaped so opening the file never runs one.
     const csv = '\uFEFF' + Papa.unparse(rows, { escapeFormulae: true, newline: '\r\n' });

@@ -107,6 +107,8 @@ export const findingCodes = {
   'circuit-untested': 'warning',
   'circuit-number-duplicate': 'warning',
   'readings-look-calculated': 'note',
+  // A value in a detail column that the checker does not use (typed there by a slip, most often).
+  'max-zs-given-unused': 'warning',
   ...previousReadingCodes,
 } as const satisfies Record<string, Severity>;
 
@@ -390,6 +392,7 @@ function circuitFacts(c: CheckCircuit, ctx: BoardContext): CircuitFacts {
   const r1PlusR2 = plainNumber(parsed.r1PlusR2);
 
   zsRules(c, ctx, parsed, out);
+  if (c.maxZsByHandOhm != null) givenMaxZsRule(c, ctx, out);
 
   // Zs against Zdb + R1+R2.
   let zsIsZdbPlusR1R2 = false;
@@ -501,6 +504,27 @@ function zsRules(c: CheckCircuit, ctx: BoardContext, parsed: Readonly<Record<Rea
       ),
     );
   }
+}
+
+/**
+ * A maximum Zs given by hand is used only where the published tables do not cover the device. One
+ * given where they do is ignored by every rule; that is said, because it is most often a reading
+ * typed into the wrong column (the "Max Zs given" column sits beside Zs).
+ */
+function givenMaxZsRule(c: CheckCircuit, ctx: BoardContext, out: Finding[]): void {
+  const { result, rcdBased } = zsLimitOf(c, ctx);
+  if (!result.ok || result.family === 'by-hand') return;
+  const used = rcdBased ? `the TT limit 50 V / IΔn (${ohmText(result.limitOhm)} Ω)` : `${ohmText(result.limitOhm)} Ω from ${result.source}`;
+  out.push(
+    finding(
+      'max-zs-given-unused',
+      c.id,
+      ['maxZsByHandOhm'],
+      `Max Zs given ${c.maxZsByHandOhm} Ω is not used: the limit is ${used}. Clear it, or was it a reading meant for another column (Zs)?`,
+      `${ohmText(result.limitOhm)} Ω`,
+      `limit from ${result.source}; a maximum Zs given by hand is used only for a device the published tables do not cover (Boardwalk’s rule)`,
+    ),
+  );
 }
 
 function lowerFirst(text: string): string {

@@ -76,6 +76,11 @@ export const circuitFieldsSchema = z.object({
   spurOriginPoint: z.string().max(60).nullable(),
   /** For a spur: length of the spur cable (m), when known. */
   spurLengthM: z.number().positive().max(1000).nullable(),
+  /**
+   * For a spur: through a fused connection unit (`fused`, any number of points) or not (`unfused`:
+   * one single or twin socket or one fixed appliance). Optional so circuits written before it fit.
+   */
+  spurProtection: z.enum(['fused', 'unfused']).nullable().optional(),
   /** A maximum Zs (Ω) entered by hand for a device the published tables do not cover. */
   // Up to 2000 Ω: on TT the limit set by an RCD is 50 V / IΔn (1667 Ω at 30 mA).
   maxZsByHandOhm: z.number().positive().max(2000).nullable(),
@@ -101,6 +106,9 @@ export const boardSummarySchema = z.object({
   circuitCount: z.number().int(),
   /** Reading cells holding a value. */
   cellsFilled: z.number().int(),
+  /** Readings the board's circuits need (the checker's required columns), and how many hold a value. */
+  readingsRequired: z.number().int(),
+  readingsDone: z.number().int(),
   site: z.object({ id: z.number().int(), client: z.string(), address: z.string() }),
   job: z.object({ id: z.number().int(), kind: z.string(), reference: z.string() }),
 });
@@ -217,3 +225,27 @@ export const boardChangesResponseSchema = z.object({
   present: z.array(z.object({ id: z.number().int(), name: z.string() })),
 });
 export type BoardChanges = Omit<z.infer<typeof boardChangesResponseSchema>, 'circuits'> & { circuits: Circuit[] };
+
+/** `GET /api/boards/:boardId/history?person=&column=`: the board's changes, newest first. */
+export const boardHistoryQuerySchema = z.object({
+  person: z.coerce.number().int().positive().optional(),
+  column: z.string().max(40).optional(),
+});
+
+export const boardHistoryEntrySchema = z.object({
+  id: z.number().int(),
+  circuitId: z.number().int().nullable(),
+  /** Null when the circuit was removed since, or the change is the board's own. */
+  circuitNumber: z.string().nullable(),
+  column: z.string().nullable(),
+  /** What changed: a cell, a detail field, a circuit added or removed, the board locked or unlocked… */
+  action: z.string(),
+  oldText: z.string().nullable(),
+  newText: z.string().nullable(),
+  by: z.object({ id: z.number().int(), name: z.string() }).nullable(),
+  at: z.string(),
+  /** typed, dictated, pasted, imported, filled… */
+  how: z.string(),
+});
+export type BoardHistoryEntry = z.infer<typeof boardHistoryEntrySchema>;
+export const boardHistoryResponseSchema = z.object({ history: z.array(boardHistoryEntrySchema), people: z.array(z.object({ id: z.number().int(), name: z.string() })) });

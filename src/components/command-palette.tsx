@@ -2,6 +2,7 @@ import { Command as Cmdk } from 'cmdk';
 import { useId, useRef, useState, type KeyboardEvent as ReactKeyboardEvent } from 'react';
 import { createPortal } from 'react-dom';
 import { matchCommandWords } from '../lib/commands/match-command-words.ts';
+import { matchCommand, type MatchKind } from '../lib/commands/rank-commands.ts';
 import { availability, runCommand, type CommandRegistry } from '../lib/commands/registry.ts';
 import { describeShortcut, detectPlatform, type KeyPlatform } from '../lib/commands/shortcut.ts';
 import type { Command, CommandArgs, CommandParam } from '../lib/commands/types.ts';
@@ -44,6 +45,8 @@ export function CommandPalette<Ctx>(props: CommandPaletteProps<Ctx>) {
 
 type Step<Ctx> =
   | { kind: 'list' }
+  /** A command that changes data, chosen by a loose match: asked before it goes on. */
+  | { kind: 'confirm'; command: Command<Ctx>; typed: string }
   | {
       kind: 'param';
       command: Command<Ctx>;
@@ -83,16 +86,29 @@ function PaletteDialog<Ctx>({ onOpenChange, registry, ctx, commandId, onError, p
     void runCommand(command, ctx, args, onError);
   };
 
-  const choose = (command: Command<Ctx>) => {
+  const [search, setSearch] = useState('');
+
+  const proceed = (command: Command<Ctx>) => {
+    setAnnouncement('');
+    if (command.params?.length) setStep({ kind: 'param', command, index: 0, args: {}, direct: false });
+    else finish(command, {});
+  };
+
+  const choose = (command: Command<Ctx>, match: MatchKind) => {
     setLastChosen(command.id);
     const verdict = availability(command, ctx);
     if (!verdict.enabled) {
       setAnnouncement(`${command.label}: ${verdict.reason}`);
+      // The filter is cleared, so the next try starts from the whole list.
+      setSearch('');
       return;
     }
-    setAnnouncement('');
-    if (command.params?.length) setStep({ kind: 'param', command, index: 0, args: {}, direct: false });
-    else finish(command, {});
+    if (command.changesData && match === 'fuzzy') {
+      setAnnouncement('');
+      setStep({ kind: 'confirm', command, typed: search });
+      return;
+    }
+    proceed(command);
   };
 
   const confirmParam = (value: string) => {
@@ -110,8 +126,8 @@ function PaletteDialog<Ctx>({ onOpenChange, registry, ctx, commandId, onError, p
 
   const back = () => {
     setAnnouncement('');
-    if (step.kind === 'list' || (step.index === 0 && step.direct)) close();
-    else if (step.index === 0) setStep({ kind: 'list' });
+    if (step.kind === 'list' || (step.kind === 'param' && step.index === 0 && step.direct)) close();
+    else if (step.kind === 'confirm' || step.index === 0) setStep({ kind: 'list' });
     else setStep({ ...step, index: step.index - 1 });
   };
 
@@ -154,8 +170,18 @@ function PaletteDialog<Ctx>({ onOpenChange, registry, ctx, commandId, onError, p
             initial={step.args[param.name] ?? ('initial' in param ? param.initial : undefined) ?? ''}
             onConfirm={confirmParam}
           />
+        ) : step.kind === 'confirm' ? (
+          <ConfirmStep label={step.command.label} typed={step.typed} onConfirm={() => proceed(step.command)} />
         ) : (
-          <CommandList registry={registry} ctx={ctx} platform={platform} defaultValue={lastChosen} onChoose={choose} />
+          <CommandList
+            registry={registry}
+            ctx={ctx}
+            platform={platform}
+            defaultValue={lastChosen}
+            search={search}
+            onSearchChange={setSearch}
+            onChoose={choose}
+          />
         )}
         <p role="status" aria-live="polite" className="border-t border-line px-3 py-1.5 text-sm text-danger empty:border-0 empty:p-0">
           {announcement}
@@ -165,36 +191,97 @@ function PaletteDialog<Ctx>({ onOpenChange, registry, ctx, commandId, onError, p
   );
 }
 
+/** A command that changes data, reached by a loose match: Enter goes on, Esc goes back to the list. */
+function ConfirmStep({ label, typed, onConfirm }: { label: string; typed: string; onConfirm: () => void }) {
+  return (
+    <div className="flex flex-col gap-2 px-3 py-3">
+      <p id="palette-confirm-question" className="font-medium">
+        {label}?
+      </p>
+      <p className="text-sm text-muted">
+        “{typed}” only loosely matches this command, and it changes the board. Run it?
+      </p>
+      <div className="flex gap-2">
+        <button
+          type="button"
+          autoFocus
+          aria-describedby="palette-confirm-question"
+          onClick={onConfirm}
+          className="rounded border border-accent bg-accent px-3 py-1 text-white"
+        >
+          Yes, go on (Enter)
+        </button>
+        <span className="self-center text-xs text-muted">Esc to go back</span>
+      </div>
+    </div>
+  );
+}
+
+interface ListedCommand<Ctx> {
+  command: Command<Ctx>;
+  group: string;
+  match: MatchKind;
+  score: number;
+  enabled: boolean;
+  order: number;
+}
+
 function CommandList<Ctx>({
   registry,
   ctx,
   platform,
   defaultValue,
+  search,
+  onSearchChange,
   onChoose,
 }: {
   registry: CommandRegistry<Ctx>;
   ctx: Ctx;
   platform: KeyPlatform;
   defaultValue: string | undefined;
-  onChoose: (command: Command<Ctx>) => void;
+  search: string;
+  onSearchChange: (search: string) => void;
+  onChoose: (command: Command<Ctx>, match: MatchKind) => void;
 }) {
+  // Our own ranking (cmdk's filter off): commands that can run now above those that cannot, then
+  // the label itself, then a prefix, then words inside, and loose matches last.
+  const searching = search.trim() !== '';
+  let order = 0;
+  let listed: ListedCommand<Ctx>[] = [];
+  for (const { group, commands } of registry.groups) {
+    for (const command of commands) {
+      order += 1;
+      const match = matchCommand(command.label, [group, ...(command.keywords ?? [])], search);
+      if (!match) continue;
+      listed.push({ command, group, match: match.kind, score: match.score, enabled: availability(command, ctx).enabled, order });
+    }
+  }
+  // Loose matches only when nothing matches by its words: "lock" must not offer some other command
+  // that happens to hold l, o, c, k in order above the one named (even one that cannot run now).
+  if (listed.some((l) => l.match !== 'fuzzy')) listed = listed.filter((l) => l.match !== 'fuzzy');
+  if (searching) listed.sort((a, b) => Number(b.enabled) - Number(a.enabled) || b.score - a.score || a.order - b.order);
+  const sections: Array<{ heading: string; items: ListedCommand<Ctx>[] }> = searching
+    ? [{ heading: 'Best matches first', items: listed }]
+    : registry.groups.map(({ group }) => ({ heading: group, items: listed.filter((l) => l.group === group) }));
   return (
-    <Cmdk label="Commands" filter={matchCommandWords} vimBindings={false} loop defaultValue={defaultValue} className="flex min-h-0 flex-col">
+    <Cmdk label="Commands" shouldFilter={false} vimBindings={false} loop defaultValue={searching ? listed[0]?.command.id : defaultValue} className="flex min-h-0 flex-col">
       <Cmdk.Input
         autoFocus
         aria-label="Command"
         placeholder="Type a command…"
+        value={search}
+        onValueChange={onSearchChange}
         className="w-full border-b border-line bg-surface px-3 py-2.5 text-base outline-none placeholder:text-muted"
       />
       <Cmdk.List label="Commands" className="min-h-0 overflow-auto p-1">
         <Cmdk.Empty className="px-3 py-4 text-muted">No command matches.</Cmdk.Empty>
-        {registry.groups.map(({ group, commands }) => (
+        {sections.map(({ heading, items }) => (
           <Cmdk.Group
-            key={group}
-            heading={group}
+            key={heading}
+            heading={heading}
             className="[&_[cmdk-group-heading]]:px-2 [&_[cmdk-group-heading]]:pt-2 [&_[cmdk-group-heading]]:pb-1 [&_[cmdk-group-heading]]:text-xs [&_[cmdk-group-heading]]:font-semibold [&_[cmdk-group-heading]]:text-muted"
           >
-            {commands.map((command) => {
+            {items.map(({ command, group, match }) => {
               const verdict = availability(command, ctx);
               const asks = (command.params?.length ?? 0) > 0;
               const name = [
@@ -209,7 +296,8 @@ function CommandList<Ctx>({
                   key={command.id}
                   value={command.id}
                   keywords={[command.label, group, ...(command.keywords ?? [])]}
-                  onSelect={() => onChoose(command)}
+                  onSelect={() => onChoose(command, match)}
+                  data-match={match}
                   aria-label={name}
                   data-unavailable={verdict.enabled ? undefined : 'true'}
                   className="flex cursor-default items-center gap-3 rounded px-2 py-1.5 data-[selected=true]:bg-accent-soft data-[unavailable=true]:text-muted"

@@ -185,6 +185,67 @@ async function nextFrame(page: Page): Promise<void> {
   await page.evaluate(() => new Promise<void>((resolve) => requestAnimationFrame(() => setTimeout(resolve, 0))));
 }
 
+/**
+ * At 1366×768 (a common laptop screen) with every circuit detail folded into one summary column: is every reading column of the single-phase demo board (the one with the
+ * most circuits) inside the grid's visible width, right of the frozen number and description, with
+ * no horizontal scrolling? Measured from the first circuit's cells, for each findings panel size.
+ */
+async function laptopVisibility(browser: Awaited<ReturnType<typeof launchBrowser>>, baseUrl: string): Promise<void> {
+  const readingColumns = columns.filter((c) => c.storage === 'reading');
+  // 'wide' starts from the default layout and presses Alt+Shift+0 (which narrows a wide findings
+  // panel with it); the others start with the details folded and the panel as named.
+  for (const findings of ['wide', 'narrow', 'hidden'] as const) {
+    const context = await browser.newContext({ viewport: { width: 1366, height: 768 }, extraHTTPHeaders: { origin: baseUrl } });
+    try {
+      const signIn = await context.request.post(`${baseUrl}/api/auth/sign-in`, { data: demoTester });
+      if (signIn.status() !== 200) throw new Error(`Sign-in answered ${signIn.status()}`);
+      const me = ((await (await context.request.get(`${baseUrl}/api/auth/me`)).json()) as { user: { id: number } }).user;
+      const { boards } = (await (await context.request.get(`${baseUrl}/api/boards`)).json()) as { boards: Array<{ id: number; reference: string; phases: number; circuitCount: number }> };
+      const board = boards.filter((b) => b.phases === 1).sort((a, b) => b.circuitCount - a.circuitCount)[0];
+      if (!board) throw new Error('No single-phase demo board');
+      const page = await context.newPage();
+      await page.addInitScript(
+        ([key, value]) => localStorage.setItem(key!, value!),
+        [`boardwalk.console.layout.${me.id}`, JSON.stringify({ folded: [], findings, detailsFolded: findings !== 'wide' })],
+      );
+      await page.goto(`${baseUrl}/boards/${board.id}`);
+      await page.getByRole('grid').waitFor();
+      await page.waitForFunction(() => document.activeElement?.getAttribute('role') === 'grid');
+      if (findings === 'wide') await page.keyboard.press('Alt+Shift+Digit0');
+      await page.waitForFunction(() => document.querySelector('[role="columnheader"][aria-label="Details ▸"]') !== null);
+      const panel = await page.evaluate(() => {
+        const section = document.querySelector('section[aria-labelledby="findings-heading"]');
+        return section ? `${Math.round(section.getBoundingClientRect().width)} px` : 'hidden';
+      });
+      await page.waitForFunction(() => document.querySelector('[role="grid"] [role="gridcell"]') !== null);
+      const result = await page.evaluate((keys: string[]) => {
+        const grid = document.querySelector<HTMLElement>('[role="grid"]')!;
+        const firstCell = grid.querySelector<HTMLElement>('[role="gridcell"][id$="-description"]')!;
+        const circuitPrefix = firstCell.id.slice(0, -'description'.length);
+        const gridRect = grid.getBoundingClientRect();
+        const rightEdge = gridRect.left + grid.clientWidth;
+        const frozenRight = firstCell.getBoundingClientRect().right;
+        const hidden: string[] = [];
+        for (const key of keys) {
+          const cell = document.getElementById(`${circuitPrefix}${key}`);
+          const rect = cell?.getBoundingClientRect();
+          if (!rect || rect.left < frozenRight - 0.5 || rect.right > rightEdge + 0.5) hidden.push(key);
+        }
+        return { hidden, scrollLeft: grid.scrollLeft, gridWidth: grid.clientWidth, scrollWidth: grid.scrollWidth };
+      }, readingColumns.map((c) => c.key));
+      const seen = readingColumns.length - result.hidden.length;
+      const all = result.hidden.length === 0 && result.scrollLeft === 0;
+      console.log(
+        `Laptop 1366×768, board ${board.reference} (single-phase), circuit details folded (${findings === 'wide' ? 'Alt+Shift+0 from the default layout' : 'Alt+Shift+0'}), findings panel ${findings === 'wide' ? `was wide, now ${panel}` : `${findings} (${panel})`}: ${all ? 'every' : 'NOT every'} reading column visible without horizontal scrolling (${seen} of ${readingColumns.length}${
+          result.hidden.length > 0 ? `; off screen: ${result.hidden.map((k) => columns.find((c) => c.key === k)!.label).join(', ')}` : ''
+        }; grid ${result.gridWidth} px wide, content ${result.scrollWidth} px)`,
+      );
+    } finally {
+      await context.close();
+    }
+  }
+}
+
 async function main() {
   const started = performance.now();
   const server = await startDemoServer();
@@ -307,6 +368,8 @@ async function main() {
       whole.values.filter((v) => script.isGenerated(v.row, v.column) === generatedOnes && v.presses.some((p) => p.key === "Control+'")).length;
     console.log(`    same-as-above used for ${ditto(false)} of the ${script.fromDemo} demo values and ${ditto(true)} of the ${script.generated} generated ones`);
     console.log(`    the same script with Enter stopping at every cell: ${ratioLine(wholeEveryCell)}`);
+    console.log('');
+    await laptopVisibility(browser, server.url);
     console.log('');
     console.log(`(${((performance.now() - started) / 1000).toFixed(1)} s in all)`);
     await context.close();

@@ -145,6 +145,8 @@ describe('typing a whole board with the keyboard only', () => {
     await answer(page, 'socket 7');
     await answer(page, '6');
     await answer(page, '');
+    // Fused or unfused: an unfused spur (one twin socket).
+    await answer(page, 'unfused');
     await expect.poll(() => gridHasFocus(page)).toBe(true);
 
     // A limitation with its reason on L-L of the last circuit.

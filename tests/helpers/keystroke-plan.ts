@@ -150,7 +150,7 @@ export function planTyping(options: PlanOptions): KeystrokePlan {
     for (const [key, cell] of Object.entries(c.cells) as [ReadingKey, { text: string } | undefined][]) if (cell) texts[key] = { text: cell.text };
     return { ...c, cells: texts };
   });
-  const applies: Applies = rule === 'every-cell' ? () => true : (row, column) => enterStopsAt(current[row]!, column);
+  const applies: Applies = rule === 'every-cell' ? () => true : (row, column) => enterStopsAt(current[row]!, column, 'zs'); // every value typed is a reading: Enter starts from a reading column
   const typeValue = options.presses ?? pressesFor;
   const wanted = new Set(options.columns);
   const values: PlannedValue[] = [];

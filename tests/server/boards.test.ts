@@ -27,6 +27,53 @@ describe('GET /api/boards and /api/boards/:boardId', () => {
     ]);
   });
 
+  it('when every reading the circuits need is typed, then progress reads all of them done (100 %), whatever columns do not apply', async () => {
+    const agent = await t.signIn('tester');
+    const before = (await agent.get('/api/boards')).body.boards[0];
+    // The checker's required columns (a ring needs r1, rn, r2 besides the six every final circuit
+    // needs; an RCD adds its time and button) — common practice for the schedule of test results.
+    expect(before).toMatchObject({ readingsDone: 0 });
+    expect(before.readingsRequired).toBeGreaterThanOrEqual(3 * 6 + 3);
+    // Fewer than every reading column of every circuit: those that do not apply are not counted.
+    expect(before.readingsRequired).toBeLessThan(3 * 13);
+    await completeBoard(t);
+    const after = (await agent.get('/api/boards')).body.boards[0];
+    expect(after.readingsDone).toBe(after.readingsRequired);
+    expect((await agent.get(`/api/boards/${board}/gate`)).body.gate).toMatchObject({ canLock: true, reasons: [] });
+  });
+
+  it('when a spur is linked as fused, then the board serves it, and a word other than fused or unfused is refused in words', async () => {
+    const agent = await t.signIn('tester');
+    const ok = await agent
+      .patch(`/api/boards/${board}/circuits/${lights}`)
+      .send({ version: 1, changes: { kind: 'spur', spurRingId: ring, spurOriginPoint: 'socket 4', spurProtection: 'fused' } });
+    expect(ok.status).toBe(200);
+    const served = (await agent.get(`/api/boards/${board}`)).body.circuits.find((c: { id: number }) => c.id === lights);
+    expect(served).toMatchObject({ kind: 'spur', spurRingId: ring, spurOriginPoint: 'socket 4', spurProtection: 'fused' });
+    const bad = await agent.patch(`/api/boards/${board}/circuits/${lights}`).send({ version: 2, changes: { spurProtection: 'maybe' } });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.message).toEqual(expect.any(String));
+  });
+
+  it('when a board was typed, locked and unlocked, then its history lists every change newest first, with the unlock reason, filterable by person and column', async () => {
+    const tester = await t.signIn('tester');
+    await tester.put(cellUrl(ring, 'zs')).send({ text: '0.44', version: 0 });
+    await completeBoard(t);
+    const reviewer = await t.signIn('reviewer');
+    expect((await reviewer.post(`/api/boards/${board}/lock`).send({})).status).toBe(200);
+    expect((await reviewer.post(`/api/boards/${board}/unlock`).send({ reason: 'Zs of circuit 1 to be tested again' })).status).toBe(200);
+    const all = (await tester.get(`/api/boards/${board}/history`)).body;
+    expect(all.history.length).toBeGreaterThanOrEqual(3);
+    const ids = all.history.map((h: { id: number }) => h.id);
+    expect(ids).toEqual([...ids].sort((a: number, b: number) => b - a));
+    expect(JSON.stringify(all.history[0])).toContain('Zs of circuit 1 to be tested again');
+    expect(all.people.map((p: { name: string }) => p.name)).toEqual(expect.arrayContaining(['Tom Tester']));
+    const tom = all.people.find((p: { name: string }) => p.name === 'Tom Tester').id;
+    const zsByTom = (await tester.get(`/api/boards/${board}/history?person=${tom}&column=zs`)).body.history;
+    expect(zsByTom).toEqual([expect.objectContaining({ circuitNumber: '1', column: 'zs', newText: '0.44', how: 'typed', by: { id: tom, name: 'Tom Tester' } })]);
+    expect((await tester.get(`/api/boards/${board}/history?person=abc`)).status).toBe(400);
+  });
+
   it('when fetching a board, then circuits come in order with cells, versions and findings', async () => {
     const agent = await t.signIn('tester');
     await agent.put(cellUrl(ring, 'zs')).send({ text: '0.44', version: 0 });

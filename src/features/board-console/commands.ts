@@ -5,10 +5,13 @@
  * controller, so it is saved by the sync engine and can be undone like a typed one.
  */
 import type { BoardDetail, Circuit, CircuitFields } from '../../../shared/schemas/boards.ts';
-import { columnGroups, columns, isReadingKey, type ColumnKey } from '../../../shared/schemas/columns.ts';
+import { columnByKey, columnGroups, columns, isReadingKey, type ColumnGroupId, type ColumnKey } from '../../../shared/schemas/columns.ts';
+import { foldShortcut, type ConsoleLayout, type FindingsPanelSize } from './layout/console-layout.ts';
+import type { HistoryTarget } from './components/history-panel.tsx';
 import type { Role } from '../../../shared/schemas/common.ts';
 import type { Command } from '../../lib/commands/types.ts';
 import { fieldText } from './grid/cell-value.ts';
+import { jumpColumn } from './grid/enter-stops.ts';
 import { positionAt, type GridPosition } from './grid/grid-state.ts';
 import type { CellChange } from './grid/undo-stack.ts';
 import type { GridController } from './components/use-grid-controller.ts';
@@ -32,6 +35,19 @@ export interface ConsoleContext {
     focusFindings(): void;
     /** Starts a download of a text file. */
     download(fileName: string, mimeType: string, text: string): void;
+    /** The person's layout: folded groups and the findings panel's size. */
+    layout: ConsoleLayout;
+    toggleGroup(group: ColumnGroupId): void;
+    toggleDetails(): void;
+    /** Opens the board's own details for editing in the header. */
+    editBoard(): void;
+    /** Opens the calculators, filled from the active circuit. */
+    openCalculators(): void;
+    /** Shows the active cell's history, or the board's. */
+    openHistory(target: HistoryTarget): void;
+    /** Opens a ring's socket-by-socket readings. */
+    openRingSockets(circuitId: number): void;
+    setFindingsPanel(size: FindingsPanelSize): void;
     /** Opens the import of an instrument's readings file. */
     openImport(): void;
     /** Shows the photos of the paper notes beside the grid and gives them the focus. */
@@ -48,6 +64,7 @@ const groups = {
   cells: 'Cells',
   circuits: 'Circuits',
   goTo: 'Go to',
+  layout: 'Layout',
   board: 'Board',
   help: 'Help',
 } as const;
@@ -81,6 +98,23 @@ function selectionWords(circuits: readonly Circuit[]): string {
 }
 
 // ---- helpers -----------------------------------------------------------------------------
+
+/**
+ * What is still open on a board about to be locked, in words: the findings that stand (warnings and
+ * notes pass the gate; errors must be resolved or accepted first) and edits not yet saved.
+ */
+export function openSummary(ctx: Pick<ConsoleContext, 'detail' | 'sync'>): string {
+  const counts = { error: 0, warning: 0, note: 0, todo: 0 };
+  for (const f of ctx.detail.findings) counts[f.severity] += 1;
+  const parts: string[] = [];
+  const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
+  if (counts.error > 0) parts.push(`${plural(counts.error, 'error')} (accepted with a reason)`);
+  if (counts.warning > 0) parts.push(plural(counts.warning, 'warning'));
+  if (counts.note > 0) parts.push(plural(counts.note, 'note'));
+  if (counts.todo > 0) parts.push(`${plural(counts.todo, 'reading')} to do`);
+  const waiting = ctx.sync.status.state === 'saving' || ctx.sync.status.state === 'offline' ? ' · edits still being saved' : '';
+  return parts.length === 0 ? `nothing still open${waiting}` : `still standing: ${parts.join(', ')}${waiting}`;
+}
 
 function fieldChanges(circuits: readonly Circuit[], fields: Partial<Record<ColumnKey, string>>, read: (p: GridPosition) => string): CellChange[] {
   const changes: CellChange[] = [];
@@ -166,6 +200,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     // Cells
     {
       id: 'console.fill-from-above',
+      changesData: true,
       label: 'Same as above, then down',
       group: groups.cells,
       keywords: ['ditto', 'copy from above', 'repeat'],
@@ -175,6 +210,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.fill-down',
+      changesData: true,
       label: 'Fill the selection down',
       group: groups.cells,
       keywords: ['fill', 'copy down', 'repeat'],
@@ -184,6 +220,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.undo',
+      changesData: true,
       label: 'Undo the last edit',
       group: groups.cells,
       keywords: ['back', 'revert'],
@@ -193,6 +230,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.redo',
+      changesData: true,
       label: 'Redo the edit undone',
       group: groups.cells,
       keywords: ['again'],
@@ -216,6 +254,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.paste',
+      changesData: true,
       label: 'Paste cells from the clipboard',
       group: groups.cells,
       keywords: ['clipboard', 'spreadsheet', 'tsv'],
@@ -227,6 +266,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.clear',
+      changesData: true,
       label: 'Clear the selected cells',
       group: groups.cells,
       keywords: ['delete', 'empty', 'erase'],
@@ -235,6 +275,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.mark-limitation',
+      changesData: true,
       label: 'Mark a limitation (LIM) with its reason',
       group: groups.cells,
       keywords: ['lim', 'limitation', 'not tested', 'reason'],
@@ -255,6 +296,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.clear-limitation',
+      changesData: true,
       label: 'Clear the limitation',
       group: groups.cells,
       keywords: ['lim', 'limitation', 'remove'],
@@ -274,6 +316,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.tick-polarity',
+      changesData: true,
       label: 'Tick polarity on the selected circuits',
       group: groups.cells,
       keywords: ['polarity', 'tick', '✓', 'confirmed'],
@@ -287,6 +330,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.keep-theirs',
+      changesData: true,
       label: 'Conflict: keep their value',
       group: groups.cells,
       keywords: ['conflict', 'theirs', 'discard mine'],
@@ -299,6 +343,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.write-mine',
+      changesData: true,
       label: 'Conflict: write my value over theirs',
       group: groups.cells,
       keywords: ['conflict', 'mine', 'overwrite'],
@@ -313,6 +358,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     // Circuits
     {
       id: 'console.set-device',
+      changesData: true,
       label: 'Set the protective device of the selected circuits',
       group: groups.circuits,
       keywords: ['device', 'breaker', 'mcb', 'rcbo', 'fuse', 'rating', 'ka', 'standard'],
@@ -334,6 +380,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.set-cable',
+      changesData: true,
       label: 'Set the cable of the selected circuits',
       group: groups.circuits,
       keywords: ['cable', 'csa', 'conductor', 'live', 'cpc', 'mm²'],
@@ -351,6 +398,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.link-spur',
+      changesData: true,
       label: 'Link a spur to its ring and origin point',
       group: groups.circuits,
       keywords: ['spur', 'ring', 'origin', 'socket', 'branch'],
@@ -365,6 +413,15 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         { name: 'origin', label: 'Origin point on the ring', kind: 'text', required: true, placeholder: 'e.g. socket 4, kitchen' },
         { name: 'length', label: 'Spur cable length (m)', kind: 'number', placeholder: 'e.g. 7' },
         { name: 'csa', label: 'Spur cable csa, live/cpc (mm²)', kind: 'text', placeholder: 'e.g. 2.5/1.5' },
+        {
+          name: 'protection',
+          label: 'Fused (through a fused connection unit) or unfused',
+          kind: 'choice',
+          options: () => [
+            { value: 'unfused', label: 'Unfused — one single or twin socket, or one fixed appliance' },
+            { value: 'fused', label: 'Fused — through a fused connection unit' },
+          ],
+        },
       ],
       when: (ctx) => {
         const can = canEdit(ctx);
@@ -403,14 +460,17 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         ctx.sync.writeField(circuit.id, 'spurRingId', ring.id);
         ctx.sync.writeField(circuit.id, 'spurOriginPoint', origin);
         ctx.sync.writeField(circuit.id, 'spurLengthM', length);
+        const protection = args.protection === 'fused' || args.protection === 'unfused' ? args.protection : null;
+        ctx.sync.writeField(circuit.id, 'spurProtection', protection);
         ctx.grid.say(
-          `Circuit ${circuit.number} is a spur of ring ${ring.number} from ${origin}${length !== null ? `, ${fieldText(length)} m` : ''}${csa ? `, ${csa.live}/${csa.cpc} mm²` : ''}.`,
+          `Circuit ${circuit.number} is ${protection === 'unfused' ? 'an unfused ' : protection === 'fused' ? 'a fused ' : 'a '}spur of ring ${ring.number} from ${origin}${length !== null ? `, ${fieldText(length)} m` : ''}${csa ? `, ${csa.live}/${csa.cpc} mm²` : ''}.`,
         );
         ctx.grid.focusGrid();
       },
     },
     {
       id: 'console.insert-circuit',
+      changesData: true,
       label: 'Insert a circuit below',
       group: groups.circuits,
       keywords: ['add', 'new circuit', 'row'],
@@ -420,14 +480,30 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         const number = (args.number ?? '').trim();
         const free = numberFree(ctx.detail, number);
         if (free !== true) throw new Error(free);
-        const circuit = await ctx.sync.insertCircuit(activeCircuit(ctx)?.id ?? null, { number });
+        // A new way in a board is most often protected like its neighbour: it starts with the device
+        // (and RCD) of the circuit above, which the typist changes if it differs.
+        const above = activeCircuit(ctx);
+        const device: Partial<CircuitFields> = above
+          ? {
+              deviceStandard: above.deviceStandard,
+              deviceType: above.deviceType,
+              ratingA: above.ratingA,
+              breakingKa: above.breakingKa,
+              rcdType: above.rcdType,
+              rcdRatedResidualMa: above.rcdRatedResidualMa,
+            }
+          : {};
+        const circuit = await ctx.sync.insertCircuit(above?.id ?? null, { ...device, number });
         ctx.grid.moveTo({ circuitId: circuit.id, column: 'description' });
-        ctx.grid.say(`Circuit ${circuit.number} inserted.`);
+        ctx.grid.say(
+          `Circuit ${circuit.number} inserted${above && above.deviceStandard ? ` with the device of circuit ${above.number} (${[above.deviceStandard, above.deviceType, above.ratingA === null ? '' : `${above.ratingA} A`].filter(Boolean).join(' ')})` : ''}.`,
+        );
         ctx.grid.focusGrid();
       },
     },
     {
       id: 'console.duplicate-circuit',
+      changesData: true,
       label: 'Duplicate the circuit (details, not readings)',
       group: groups.circuits,
       keywords: ['copy', 'clone', 'same as'],
@@ -447,6 +523,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.remove-circuit',
+      changesData: true,
       label: 'Remove the circuit',
       group: groups.circuits,
       keywords: ['delete', 'remove', 'row'],
@@ -467,6 +544,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.renumber-circuit',
+      changesData: true,
       label: 'Renumber the circuit',
       group: groups.circuits,
       keywords: ['number', 'rename'],
@@ -487,6 +565,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.add-three-phase-group',
+      changesData: true,
       label: 'Add a three-phase group (nL1, nL2, nL3)',
       group: groups.circuits,
       keywords: ['three phase', 'l1 l2 l3', 'way', 'tp'],
@@ -529,7 +608,12 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
           ctx.grid.focusGrid();
           return;
         }
-        ctx.grid.moveTo({ circuitId: circuit.id, column: ctx.grid.active?.column ?? 'description' });
+        const from = ctx.grid.active?.column;
+        const landing = jumpColumn(circuit, from, ctx.grid.shape.columns);
+        ctx.grid.moveTo({ circuitId: circuit.id, column: landing.column });
+        if (!landing.kept && from) {
+          ctx.grid.say(`Circuit ${circuit.number}: ${columnByKey[from].label} is not a reading it needs, so the cursor is on ${columnByKey[landing.column].label}.`);
+        }
         ctx.grid.focusGrid();
       },
     },
@@ -561,6 +645,99 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         ctx.grid.focusGrid();
       },
     },
+    // Layout (remembered per person)
+    ...columnGroups.map(
+      (group): ConsoleCommand => ({
+        id: `console.fold-${group.id}`,
+        label: `Fold or unfold ${group.label.toLowerCase()}`,
+        group: groups.layout,
+        keywords: ['fold', 'unfold', 'collapse', 'expand', 'hide columns', 'laptop', group.label.toLowerCase()],
+        shortcut: foldShortcut(group.id),
+        run: (ctx) => {
+          ctx.ui.toggleGroup(group.id);
+          ctx.grid.focusGrid();
+        },
+      }),
+    ),
+    {
+      id: 'console.edit-board',
+      label: 'Edit the board’s details (Zdb, Ipf, location, instruments…)',
+      group: groups.board,
+      keywords: ['board', 'zdb', 'ipf', 'instruments', 'location', 'supplied from', 'polarity confirmed', 'header'],
+      shortcut: 'Alt+Shift+KeyB',
+      when: (ctx) => lockedReason(ctx) ?? true,
+      run: (ctx) => ctx.ui.editBoard(),
+    },
+    {
+      id: 'console.ring-sockets',
+      label: 'Socket-by-socket readings of the ring (plot and diagnosis)',
+      group: groups.circuits,
+      keywords: ['ring', 'socket', 'cross-connected', 'profile', 'step 3', 'figure of eight', 'l-cpc', 'l-n'],
+      shortcut: 'Alt+Shift+KeyR',
+      when: (ctx) => {
+        const circuit = activeCircuit(ctx);
+        if (!circuit) return 'There is no circuit on this board yet';
+        return circuit.kind === 'ring' ? true : `Circuit ${circuit.number} is not a ring final circuit`;
+      },
+      run: (ctx) => {
+        const circuit = activeCircuit(ctx);
+        if (circuit) ctx.ui.openRingSockets(circuit.id);
+      },
+    },
+    {
+      id: 'console.cell-history',
+      label: 'History of the active cell (who, when, how)',
+      group: groups.board,
+      keywords: ['history', 'who', 'changed', 'audit', 'cell'],
+      shortcut: 'Alt+Shift+KeyH',
+      when: (ctx) => (ctx.grid.active ? true : 'There is no cell to show'),
+      run: (ctx) => {
+        const active = ctx.grid.active;
+        const circuit = activeCircuit(ctx);
+        if (!active || !circuit) return;
+        ctx.ui.openHistory({ kind: 'cell', circuitId: circuit.id, circuitNumber: circuit.number, column: active.column });
+      },
+    },
+    {
+      id: 'console.board-history',
+      label: 'Board history, by person and column',
+      group: groups.board,
+      keywords: ['history', 'who', 'changed', 'audit', 'board', 'unlock reasons'],
+      shortcut: 'Alt+Shift+KeyY',
+      run: (ctx) => ctx.ui.openHistory({ kind: 'board' }),
+    },
+    {
+      id: 'console.calculators',
+      label: 'Calculators: expected R1+R2, longest run, maximum Zs, Zs when hot',
+      group: groups.board,
+      keywords: ['calculate', 'calculator', 'expected', 'max zs', 'length', 'temperature', 'r1+r2'],
+      shortcut: 'Alt+Shift+KeyC',
+      run: (ctx) => ctx.ui.openCalculators(),
+    },
+    {
+      id: 'console.fold-details',
+      label: 'Fold or unfold every circuit detail (readings only, for a laptop screen)',
+      group: groups.layout,
+      keywords: ['fold', 'details', 'laptop', 'narrow', 'readings only', 'collapse'],
+      shortcut: 'Alt+Shift+Digit0',
+      run: (ctx) => {
+        ctx.ui.toggleDetails();
+        ctx.grid.focusGrid();
+      },
+    },
+    {
+      id: 'console.findings-panel',
+      label: 'Findings panel: wide, narrow or hidden',
+      group: groups.layout,
+      keywords: ['findings', 'panel', 'hide', 'narrow', 'width', 'laptop'],
+      shortcut: 'Alt+Shift+KeyF',
+      run: (ctx) => {
+        const order: FindingsPanelSize[] = ['wide', 'narrow', 'hidden'];
+        const next = order[(order.indexOf(ctx.ui.layout.findings) + 1) % order.length]!;
+        ctx.ui.setFindingsPanel(next);
+        ctx.grid.focusGrid();
+      },
+    },
     {
       id: 'console.focus-findings',
       label: 'Go to the findings list',
@@ -582,9 +759,22 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     // Board
     {
       id: 'console.lock',
+      changesData: true,
       label: 'Lock the board',
       group: groups.board,
       keywords: ['lock', 'review', 'finish', 'freeze'],
+      params: [
+        {
+          name: 'confirm',
+          label: 'Lock the board? What still stands is listed; nothing on the board changes until a reviewer unlocks it',
+          kind: 'choice',
+          required: true,
+          options: () => {
+            const ctx = current();
+            return [{ value: 'yes', label: `Yes, lock it — ${ctx ? openSummary(ctx) : 'nothing recorded still open'}` }, { value: 'no', label: 'No, keep it open' }];
+          },
+        },
+      ],
       when: (ctx) => {
         if (ctx.role !== 'reviewer' && ctx.role !== 'admin') return 'Only a reviewer or an admin can lock a board';
         if (ctx.detail.board.state === 'locked') return 'The board is already locked';
@@ -592,7 +782,12 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
         const reasons = ctx.lockReasons ?? [];
         return reasons.length === 0 ? true : `Not yet — ${reasons.length} ${reasons.length === 1 ? 'reason' : 'reasons'}: ${reasons.join(' · ')}`;
       },
-      run: async (ctx) => {
+      run: async (ctx, args) => {
+        if (args.confirm !== 'yes') {
+          ctx.grid.say(`Board ${ctx.detail.board.reference} left open.`);
+          ctx.grid.focusGrid();
+          return;
+        }
         if (ctx.grid.stateRef.current.edit) ctx.grid.commitEdit(null);
         await ctx.sync.lockBoard();
         ctx.grid.say(`Board ${ctx.detail.board.reference} locked.`);
@@ -601,6 +796,7 @@ export function createConsoleCommands(current: () => ConsoleContext | null): Con
     },
     {
       id: 'console.unlock',
+      changesData: true,
       label: 'Unlock the board',
       group: groups.board,
       keywords: ['unlock', 'reopen', 'edit again'],

@@ -29,6 +29,11 @@ export interface Command<Ctx> {
   keywords?: readonly string[];
   /** tinykeys syntax, e.g. `$mod+k`, `Shift+?`, `Alt+l`. Omitted: palette only. */
   shortcut?: string;
+  /**
+   * The command changes or removes data (cells, circuits, the board's state). Chosen in the palette
+   * by a loose (fuzzy) match rather than by its words, it asks before it runs.
+   */
+  changesData?: boolean;
   /** Values asked for before `run`. */
   params?: readonly CommandParam[];
   /** true when the command can run now; otherwise the reason it cannot (shown, command disabled). */

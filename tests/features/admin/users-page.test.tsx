@@ -35,6 +35,26 @@ afterEach(() => {
 });
 
 describe('users page', () => {
+  it('when an admin edits a name and presses Enter, then only the name is sent and the row shows it', async () => {
+    const calls = stubUsersApi();
+    const { user } = renderWithProviders(<UsersPage />);
+    const field = await screen.findByRole('textbox', { name: 'Name of Tess Tester' });
+    await user.clear(field);
+    await user.type(field, 'Tess Trent{Enter}');
+    expect(await screen.findByText('Saved as Tess Trent.')).toBeInTheDocument();
+    expect(calls.filter((c) => c.method === 'PATCH').map((c) => c.body)).toEqual([{ name: 'Tess Trent' }]);
+  });
+
+  it('when a name is emptied, then nothing is sent and the reason shows', async () => {
+    const calls = stubUsersApi();
+    const { user } = renderWithProviders(<UsersPage />);
+    const field = await screen.findByRole('textbox', { name: 'Name of Tess Tester' });
+    await user.clear(field);
+    await user.type(field, '{Enter}');
+    expect(screen.getByText('A name cannot be empty.')).toHaveAttribute('role', 'alert');
+    expect(calls.filter((c) => c.method === 'PATCH')).toHaveLength(0);
+  });
+
   it('when an admin deactivates a person from the keyboard, then it asks once, sends active: false and offers to reactivate', async () => {
     const calls = stubUsersApi();
     const { user } = renderWithProviders(<UsersPage />);

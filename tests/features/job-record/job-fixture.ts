@@ -41,6 +41,8 @@ export const board: BoardSummary = {
   state: 'open',
   circuitCount: 10,
   cellsFilled: 4,
+  readingsRequired: 60,
+  readingsDone: 4,
   site: { id: site.id, client: site.client, address: site.address },
   job: { id: 41, kind: 'EICR', reference: 'EICR-2026-0041' },
 };

@@ -24,6 +24,9 @@ const board = (id: number, jobId: number, reference: string, location: string, s
     state,
     circuitCount,
     cellsFilled,
+    // Radials without an RCD need six readings each (the checker's required columns).
+    readingsRequired: circuitCount * 6,
+    readingsDone: Math.min(cellsFilled, circuitCount * 6),
     site: { id: site.id, client: site.client, address: site.address },
     job: { id: job.id, kind: job.kind, reference: job.reference },
   };

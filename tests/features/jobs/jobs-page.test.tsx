@@ -41,7 +41,8 @@ describe('jobs page', () => {
     const db1 = within(bakery).getByRole('link', { name: 'DB1' }).closest('tr')!;
     expect(within(db1).getByText('open')).toBeInTheDocument();
     expect(within(db1).getByText('12')).toBeInTheDocument();
-    expect(db1).toHaveTextContent('40 / 156 cells');
+    // 12 radials × 6 needed readings (the checker's required columns) = 72; 40 typed → 55 % (rounded down).
+    expect(db1).toHaveTextContent('55 % · 40 / 72 readings');
 
     const lodge = screen.getByRole('region', { name: /Ellis Lodge/ });
     expect(within(lodge).getByRole('link', { name: 'CU' }).closest('tr')).toHaveTextContent('locked');

@@ -114,11 +114,13 @@ describe('CommandPalette', () => {
     expect(item).toHaveTextContent('Not available: Only a reviewer can lock a board.');
     await user.keyboard('lock');
     expect(optionNames(dialog)).toEqual(['Lock the board, not available: Only a reviewer can lock a board.']);
-    expect(item).toHaveAttribute('aria-selected', 'true');
+    expect(within(dialog).getByRole('option', { name: /Lock the board/ })).toHaveAttribute('aria-selected', 'true');
     await user.keyboard('{Enter}');
     expect(lock).not.toHaveBeenCalled();
     expect(within(dialog).getByRole('status')).toHaveTextContent('Lock the board: Only a reviewer can lock a board.');
     expect(screen.getByRole('dialog')).toBeInTheDocument();
+    // The filter is left clean for the next try.
+    expect(within(dialog).getByRole('combobox')).toHaveValue('');
   });
 
   it('runs the same command for a reviewer', async () => {
@@ -217,5 +219,52 @@ describe('CommandPalette', () => {
     act(() => screen.getByRole('button', { name: 'Close from outside' }).click());
     await waitFor(() => expect(opener).toHaveFocus());
     expect(screen.queryByRole('dialog')).not.toBeInTheDocument();
+  });
+
+  describe('ranking and loose matches', () => {
+    function rankingCommands(removed = vi.fn()) {
+      return createRegistry<Ctx>([
+        { id: 't.lock', label: 'Lock the board', group: 'Board', changesData: true, when: () => 'Only a reviewer can lock a board.', run: () => {} },
+        { id: 't.locate', label: 'Show where the board is located', group: 'Board', run: () => {} },
+        { id: 't.block', label: 'Fill a block of cells', group: 'Cells', changesData: true, run: () => {} },
+        { id: 't.remove', label: 'Remove the circuit', group: 'Circuits', changesData: true, run: removed },
+        { id: 't.rename', label: 'Rename the circuit', group: 'Circuits', run: () => {} },
+      ]);
+    }
+
+    it('when words are typed, then commands that can run come first, and a prefix ranks above a word inside, above a loose match', async () => {
+      const { user, dialog } = await openPalette(rankingCommands());
+      await user.keyboard('loc');
+      // "loc" starts "located" (prefix) and is inside "block" (a word inside); "Lock" is a prefix too
+      // but cannot run now, so it comes last.
+      expect(optionNames(dialog)).toEqual(['Show where the board is located', 'Fill a block of cells', 'Lock the board, not available: Only a reviewer can lock a board.']);
+      expect(within(dialog).getAllByRole('option')[0]).toHaveAttribute('aria-selected', 'true');
+    });
+
+    it('when a command that removes data is chosen by a loose match, then it asks first; Esc goes back and nothing runs', async () => {
+      const removed = vi.fn();
+      const { user, dialog } = await openPalette(rankingCommands(removed));
+      await user.keyboard('rmvc');
+      expect(within(dialog).getAllByRole('option')[0]).toHaveAttribute('data-match', 'fuzzy');
+      expect(optionNames(dialog)[0]).toBe('Remove the circuit');
+      await user.keyboard('{Enter}');
+      expect(removed).not.toHaveBeenCalled();
+      expect(within(dialog).getByText(/only loosely matches this command/)).toBeInTheDocument();
+      await user.keyboard('{Escape}');
+      expect(removed).not.toHaveBeenCalled();
+      expect(within(dialog).getByRole('combobox')).toBeInTheDocument();
+    });
+
+    it('when it is confirmed with Enter, then it runs; chosen by its words it runs without asking', async () => {
+      const removed = vi.fn();
+      const { user, dialog } = await openPalette(rankingCommands(removed));
+      await user.keyboard('rmvc{Enter}');
+      expect(within(dialog).getByRole('button', { name: /Yes, go on/ })).toHaveFocus();
+      await user.keyboard('{Enter}');
+      expect(removed).toHaveBeenCalledTimes(1);
+      await user.click(screen.getByRole('button', { name: 'Open palette' }));
+      await user.keyboard('remove{Enter}');
+      expect(removed).toHaveBeenCalledTimes(2);
+    });
   });
 });

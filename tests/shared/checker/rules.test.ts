@@ -91,10 +91,12 @@ const cases: Case[] = [
   },
   {
     // A figure given by hand never overrides a published table: B20 stays 2.19 Ω (BS 7671:2018 Table 41.3).
-    name: 'a device in the tables with a maximum Zs given by hand: the table still rules',
+    // The figure is then ignored by every rule, which is said: most often it is a reading typed into
+    // the wrong column. B20: 0.95 × 230 / (5 × 20) = 2.185 → 2.19 Ω (BS 7671:2018 Table 41.3).
+    name: 'a device in the tables with a maximum Zs given by hand: the table still rules, and the unused figure is a finding',
     input: board([radial({ maxZsByHandOhm: 0.5, cells: { ...cleanRadialCells } })]),
-    codes: [],
-    expect: { code: '' },
+    codes: ['max-zs-given-unused'],
+    expect: { code: 'max-zs-given-unused', severity: 'warning', columns: ['maxZsByHandOhm'], limit: '2.19 Ω', sourceIncludes: 'Table 41.3', messageIncludes: 'not used' },
   },
   {
     name: 'Zs well above Zdb + R1+R2',

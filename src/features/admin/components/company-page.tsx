@@ -1,4 +1,5 @@
-import { useId, useRef, useState, type FormEvent, type ReactNode } from 'react';
+import { FormField, describedBy, inputClass } from '../../../components/form-field.tsx';
+import { useId, useRef, useState, type FormEvent } from 'react';
 import { maxLogoBytes } from '../../../../shared/schemas/company-logo.ts';
 import type { Company, CompanyFields } from '../../../../shared/schemas/company.ts';
 import { useRemoveLogo, useUploadLogo } from '../api/company-logo.ts';
@@ -9,37 +10,8 @@ import { fieldErrorsFrom, type FieldErrors } from '../field-errors.ts';
 const fields = ['name', 'address', 'phone', 'email', 'registration', 'referencePattern'] as const;
 type Field = (typeof fields)[number];
 
-const inputClass =
-  'block w-full rounded border border-line-strong bg-surface px-2 py-1 aria-invalid:border-danger aria-invalid:bg-danger-soft';
 const buttonClass = 'rounded bg-accent px-3 py-1.5 font-medium text-white hover:bg-accent-hover aria-disabled:opacity-70';
 const quietButtonClass = 'rounded border border-line-strong px-3 py-1.5 font-medium hover:bg-accent-soft aria-disabled:opacity-70';
-
-function Field({ id, label, hint, error, children }: { id: string; label: string; hint?: string; error?: string; children: ReactNode }) {
-  return (
-    <div className="space-y-1">
-      <label htmlFor={id} className="block font-medium">
-        {label}
-      </label>
-      {children}
-      {hint && !error && (
-        <p id={`${id}-hint`} className="text-xs text-muted">
-          {hint}
-        </p>
-      )}
-      {error && (
-        <p id={`${id}-error`} className="text-danger">
-          {error}
-        </p>
-      )}
-    </div>
-  );
-}
-
-const describedBy = (id: string, error: string | undefined, hasHint: boolean) =>
-  ({
-    'aria-invalid': error ? true : undefined,
-    'aria-describedby': error ? `${id}-error` : hasHint ? `${id}-hint` : undefined,
-  }) as const;
 
 /** Admins only: the company's details and logo, printed on every issued certificate and report. */
 export function CompanyPage() {
@@ -93,7 +65,7 @@ function CompanyForm({ company }: { company: Company }) {
 
   const fieldError = (field: Field) => errors?.fields[field];
   const text = (field: Exclude<Field, 'address'>, label: string, options: { hint?: string; type?: string; autoComplete?: string } = {}) => (
-    <Field id={id(field)} label={label} hint={options.hint} error={fieldError(field)}>
+    <FormField id={id(field)} label={label} hint={options.hint} error={fieldError(field)}>
       <input
         id={id(field)}
         name={field}
@@ -103,13 +75,13 @@ function CompanyForm({ company }: { company: Company }) {
         className={inputClass}
         {...describedBy(id(field), fieldError(field), Boolean(options.hint))}
       />
-    </Field>
+    </FormField>
   );
 
   return (
     <form aria-label="Company details" noValidate onSubmit={handleSubmit} className="space-y-3 rounded border border-line bg-surface p-4">
       {text('name', 'Company name', { autoComplete: 'organization' })}
-      <Field id={id('address')} label="Address" error={fieldError('address')}>
+      <FormField id={id('address')} label="Address" error={fieldError('address')}>
         <textarea
           id={id('address')}
           name="address"
@@ -130,7 +102,7 @@ function CompanyForm({ company }: { company: Company }) {
             Shift+Enter starts a new line.
           </p>
         )}
-      </Field>
+      </FormField>
       <div className="grid gap-3 sm:grid-cols-2">
         {text('phone', 'Telephone', { type: 'tel' })}
         {text('email', 'E-mail', { type: 'email', hint: 'Clients reply to this address.' })}

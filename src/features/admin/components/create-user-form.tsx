@@ -1,4 +1,5 @@
-import { useId, useRef, useState, type FormEvent, type ReactNode } from 'react';
+import { FormField, describedBy, inputClass } from '../../../components/form-field.tsx';
+import { useId, useRef, useState, type FormEvent } from 'react';
 import type { CreateUserBody } from '../../../../shared/schemas/auth.ts';
 import { roles, type Role } from '../../../../shared/schemas/common.ts';
 import { useCreateUser } from '../api/create-user.ts';
@@ -9,43 +10,12 @@ type Field = (typeof fields)[number];
 
 /** What each role may do, shown next to the choice. */
 const roleDescriptions: Record<Role, string> = {
-  tester: 'enters and edits readings',
-  reviewer: 'also locks, unlocks and issues',
-  admin: 'manages people and company details',
+  tester: 'types readings and the job record, and signs for the work they did',
+  reviewer: 'also accepts findings, locks and unlocks boards, approves, signs as reviewer, issues and sends',
+  admin: 'also manages people and the company details',
 };
 
-const inputClass =
-  'block w-full rounded border border-line-strong bg-surface px-2 py-1 aria-invalid:border-danger aria-invalid:bg-danger-soft';
-
-function Field({ id, label, hint, error, children }: { id: string; label: string; hint?: string; error?: string; children: ReactNode }) {
-  return (
-    <div className="space-y-1">
-      <label htmlFor={id} className="block font-medium">
-        {label}
-      </label>
-      {children}
-      {hint && !error && (
-        <p id={`${id}-hint`} className="text-xs text-muted">
-          {hint}
-        </p>
-      )}
-      {error && (
-        <p id={`${id}-error`} className="text-danger">
-          {error}
-        </p>
-      )}
-    </div>
-  );
-}
-
 /** Props that tie an input to its hint or error. */
-function describedBy(id: string, error: string | undefined, hasHint: boolean) {
-  return {
-    'aria-invalid': error ? true : undefined,
-    'aria-describedby': error ? `${id}-error` : hasHint ? `${id}-hint` : undefined,
-  } as const;
-}
-
 /** Adds a person. The server checks everything; its messages appear at the fields they concern. */
 export function CreateUserForm() {
   const createUser = useCreateUser();
@@ -95,13 +65,13 @@ export function CreateUserForm() {
       <h2 id={`${baseId}-heading`} className="text-base font-semibold">
         Add a person
       </h2>
-      <Field id={id('email')} label="E-mail" error={fieldError('email')}>
+      <FormField id={id('email')} label="E-mail" error={fieldError('email')}>
         <input id={id('email')} name="email" type="email" autoComplete="off" spellCheck={false} className={inputClass} {...describedBy(id('email'), fieldError('email'), false)} />
-      </Field>
-      <Field id={id('name')} label="Name" error={fieldError('name')}>
+      </FormField>
+      <FormField id={id('name')} label="Name" error={fieldError('name')}>
         <input id={id('name')} name="name" type="text" autoComplete="off" className={inputClass} {...describedBy(id('name'), fieldError('name'), false)} />
-      </Field>
-      <Field id={id('role')} label="Role" error={fieldError('role')}>
+      </FormField>
+      <FormField id={id('role')} label="Role" error={fieldError('role')}>
         <select id={id('role')} name="role" defaultValue="tester" className={inputClass} {...describedBy(id('role'), fieldError('role'), false)}>
           {roles.map((role) => (
             <option key={role} value={role}>
@@ -109,10 +79,10 @@ export function CreateUserForm() {
             </option>
           ))}
         </select>
-      </Field>
-      <Field id={id('password')} label="Password" hint="At least 10 characters. Pass it on privately." error={fieldError('password')}>
+      </FormField>
+      <FormField id={id('password')} label="Password" hint="At least 10 characters. Pass it on privately." error={fieldError('password')}>
         <input id={id('password')} name="password" type="password" autoComplete="new-password" className={inputClass} {...describedBy(id('password'), fieldError('password'), true)} />
-      </Field>
+      </FormField>
       <button
         type="submit"
         aria-disabled={createUser.isPending || undefined}

@@ -2,6 +2,7 @@ import { useUsers } from '../api/get-users.ts';
 import { AccountSwitch } from './account-switch.tsx';
 import { CreateUserForm } from './create-user-form.tsx';
 import { PasswordReset } from './password-reset.tsx';
+import { NameEditor } from './name-editor.tsx';
 import { RoleChanger } from './role-changer.tsx';
 
 /** Admins only: everyone with an account and their role, and a form to add someone. */
@@ -38,7 +39,7 @@ export function UsersPage() {
               {users.data.map((user) => (
                 <tr key={user.id} className="border-t border-line align-middle">
                   <th scope="row" className="px-3 py-1 text-left font-medium">
-                    {user.name}
+                    <NameEditor user={user} />
                   </th>
                   <td className="px-3 py-1 break-all">{user.email}</td>
                   <td className="px-3 py-1">

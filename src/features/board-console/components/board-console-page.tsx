@@ -98,5 +98,5 @@ function BoardConsoleLoader({ boardId }: { boardId: number }) {
       </div>
     );
   }
-  return <BoardConsole sync={sync} detail={sync.detail} findings={findings} role={me.data?.role ?? null} lockReasons={lockReasons} />;
+  return <BoardConsole sync={sync} detail={sync.detail} findings={findings} role={me.data?.role ?? null} lockReasons={lockReasons} personId={me.data?.id ?? null} />;
 }

@@ -2,7 +2,8 @@ import { lazy, Suspense, useCallback, useContext, useDeferredValue, useMemo, use
 import { QueryClientContext } from '@tanstack/react-query';
 import type { BoardDetail } from '../../../../shared/schemas/boards.ts';
 import type { Role } from '../../../../shared/schemas/common.ts';
-import { columnByKey, isReadingKey, type ColumnKey } from '../../../../shared/schemas/columns.ts';
+import { columnByKey, columnGroups, isReadingKey, type ColumnKey } from '../../../../shared/schemas/columns.ts';
+import { layoutColumns, loadLayout, saveLayout, type ConsoleLayout } from '../layout/console-layout.ts';
 import type { Finding } from '../../../../shared/schemas/findings.ts';
 import { CommandPalette } from '../../../components/command-palette.tsx';
 import { KeysOverlay, type KeysSection } from '../../../components/keys-overlay.tsx';
@@ -17,6 +18,10 @@ import type { CellChange } from '../grid/undo-stack.ts';
 import { QuickEntryLine } from '../quick-entry/quick-entry-line.tsx';
 import { quickEntryWordsSection, type QuickEntry, type QuickEntryCircuit } from '../quick-entry/parse-quick-entry.ts';
 import type { BoardSync, Conflict } from '../sync/types.ts';
+import { BoardDetailsForm } from './board-details-form.tsx';
+import { CalculatorsPanel } from './calculators-panel.tsx';
+import { HistoryPanel, type HistoryTarget } from './history-panel.tsx';
+import { RingSocketsPanel } from './ring-sockets-panel.tsx';
 import { BoardGrid } from './board-grid.tsx';
 import { ConflictList } from './conflict-list.tsx';
 import { ConsoleHeader } from './console-header.tsx';
@@ -39,6 +44,8 @@ export interface BoardConsoleProps {
   role: Role | null;
   /** Why the board cannot be locked yet (the completeness gate); null while not known. */
   lockReasons?: readonly string[] | null;
+  /** The signed-in person's id: their folded groups and findings panel are remembered under it. */
+  personId?: number | null;
 }
 
 function downloadText(fileName: string, mimeType: string, text: string): void {
@@ -68,7 +75,7 @@ function keepTextEditingKeys(event: KeyboardEvent) {
  * and the status line; the palette and the keys overlay on top. One command registry feeds the
  * palette, the key bindings and the overlay.
  */
-export function BoardConsole({ sync, detail, findings, role, lockReasons = null }: BoardConsoleProps) {
+export function BoardConsole({ sync, detail, findings, role, lockReasons = null, personId = null }: BoardConsoleProps) {
   const board = detail.board;
   const lockedReason =
     board.state === 'locked' ? `Board ${board.reference} is locked${board.lockedBy ? ` by ${board.lockedBy.name}` : ''}: a reviewer must unlock it before anything changes.` : null;
@@ -89,11 +96,27 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
     return set;
   }, [registry]);
 
-  const grid = useGridController({ sync, detail, lockedReason, commandCharacters });
+  const [layout, setLayoutState] = useState<ConsoleLayout>(() => loadLayout(personId));
+  const setLayout = useCallback(
+    (change: (current: ConsoleLayout) => ConsoleLayout) =>
+      setLayoutState((current) => {
+        const next = change(current);
+        saveLayout(personId, next);
+        return next;
+      }),
+    [personId],
+  );
+  const gridColumns = useMemo(() => layoutColumns(layout.folded, undefined, layout.detailsFolded), [layout.folded, layout.detailsFolded]);
+
+  const grid = useGridController({ sync, detail, lockedReason, commandCharacters, columns: gridColumns });
 
   const [paletteOpen, setPaletteOpen] = useState(false);
   const [paletteCommand, setPaletteCommand] = useState<string | undefined>(undefined);
   const [keysOpen, setKeysOpen] = useState(false);
+  const [editingBoard, setEditingBoard] = useState(false);
+  const [calculatorsOpen, setCalculatorsOpen] = useState(false);
+  const [history, setHistory] = useState<HistoryTarget | null>(null);
+  const [ringSocketsOf, setRingSocketsOf] = useState<number | null>(null);
   const [quickEntryNote, setQuickEntryNote] = useState<string | undefined>(undefined);
   const quickEntryRef = useRef<HTMLInputElement | null>(null);
   const findingsRef = useRef<HTMLUListElement | null>(null);
@@ -125,9 +148,15 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
   }, [sync.conflicts]);
 
   // Rebuilt only when circuits are added, removed, reordered or renumbered, not on each value typed.
-  const numbersKey = detail.circuits.map((c) => `${c.id}\t${c.number}`).join('\n');
+  const numbersKey = detail.circuits.map((c) => `${c.id}\t${c.number}\t${c.kind}`).join('\n');
   const quickEntryCircuits: QuickEntryCircuit[] = useMemo(
-    () => (numbersKey === '' ? [] : numbersKey.split('\n').map((line) => ({ id: Number(line.split('\t')[0]), number: line.split('\t')[1] ?? '' }))),
+    () =>
+      numbersKey === ''
+        ? []
+        : numbersKey.split('\n').map((line) => {
+            const [id, number = '', kind] = line.split('\t');
+            return { id: Number(id), number, kind: kind as QuickEntryCircuit['kind'] };
+          }),
     [numbersKey],
   );
   const circuitNumbers = useMemo(() => new Map(quickEntryCircuits.map((c) => [c.id, c.number])), [quickEntryCircuits]);
@@ -194,11 +223,44 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
       openKeys: () => setKeysOpen(true),
       openQuickEntry: () => quickEntryRef.current?.focus(),
       focusFindings: () => {
+        if (layout.findings === 'hidden') {
+          // Going to the findings shows the panel again (narrow or wide as it was before hiding: wide).
+          setLayout((current) => ({ ...current, findings: 'wide' }));
+          setTimeout(() => findingsRef.current?.querySelector<HTMLButtonElement>('button[data-finding]:not(:disabled)')?.focus(), 0);
+          return;
+        }
         const first = findingsRef.current?.querySelector<HTMLButtonElement>('button[data-finding]:not(:disabled)');
         if (first) first.focus();
         else grid.say('There is no finding to go to.');
       },
       download: downloadText,
+      layout,
+      toggleGroup: (group) => {
+        const folding = !layout.folded.includes(group);
+        setLayout((current) => ({ ...current, folded: folding ? [...current.folded, group] : current.folded.filter((g) => g !== group) }));
+        const label = columnGroups.find((g) => g.id === group)?.label ?? group;
+        grid.say(`${label} ${folding ? 'folded to one column' : 'unfolded'}.`);
+      },
+      editBoard: () => setEditingBoard(true),
+      openCalculators: () => setCalculatorsOpen(true),
+      openHistory: (target) => setHistory(target),
+      openRingSockets: (circuitId) => setRingSocketsOf(circuitId),
+      toggleDetails: () => {
+        const folding = !layout.detailsFolded;
+        // Folding the details is the laptop layout: a wide findings panel goes narrow with it, so
+        // every reading column fits beside it at 1366 px.
+        const narrowed = folding && layout.findings === 'wide';
+        setLayout((current) => ({ ...current, detailsFolded: folding, findings: narrowed ? 'narrow' : current.findings }));
+        grid.say(
+          folding
+            ? `Circuit details folded into one column beside the description; readings drawn narrow${narrowed ? '; findings panel narrow' : ''}.`
+            : 'Circuit details unfolded.',
+        );
+      },
+      setFindingsPanel: (size) => {
+        setLayout((current) => ({ ...current, findings: size }));
+        grid.say(size === 'hidden' ? 'Findings panel hidden.' : `Findings panel ${size}.`);
+      },
       openImport: () => setImportOpen(true),
       showPhotos: () => {
         setPhotosShown(true);
@@ -255,7 +317,7 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
   }, []);
 
   useCommandKeys(registry, ctx, {
-    enabled: !paletteOpen && !keysOpen && !importOpen,
+    enabled: !paletteOpen && !keysOpen && !importOpen && !editingBoard && !calculatorsOpen && !history && ringSocketsOf === null,
     onNeedsArgs: (command) => openPalette(command.id),
     onUnavailable: (command, reason) => ctxRef.current?.grid.say(`${command.label}: ${reason}.`, 'error'),
     onError: onCommandError,
@@ -287,11 +349,15 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
         return { ...position, before: g.read(position), after: e.text };
       });
       const result = g.applyChanges(changes, 'dictated', 'dictated entry');
+      // The cursor goes to the last cell written, and the grid scrolls to show it: the typist sees
+      // where the values landed (and a bare value on the next line goes to that column).
       const last = entries[entries.length - 1];
-      if (last) g.moveTo({ circuitId: last.circuitId, column: g.active?.column ?? last.column });
+      if (last) g.moveTo({ circuitId: last.circuitId, column: last.column });
       const first = result.refused[0];
-      setQuickEntryNote(first ? `Not saved — ${first.message}` : undefined);
+      const stripped = result.stripped[0];
+      setQuickEntryNote(first ? `Not saved — ${first.message}` : stripped ? `Saved — ${stripped.message}.` : undefined);
       if (first) g.say(`Not saved — ${first.message}`, 'error');
+      else if (stripped) g.say(`Saved — ${stripped.message}.`);
     },
     [],
   );
@@ -339,6 +405,70 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
   return (
     <div className="flex h-full min-h-0 flex-col">
       <ConsoleHeader board={board} site={detail.site} job={detail.job} present={sync.present} status={sync.status} />
+      {ringSocketsOf !== null && detail.circuits.find((c) => c.id === ringSocketsOf) && (
+        <RingSocketsPanel
+          key={ringSocketsOf}
+          boardId={board.id}
+          circuit={detail.circuits.find((c) => c.id === ringSocketsOf)!}
+          locked={board.state === 'locked'}
+          onRecord={(text) => {
+            const g = ctxRef.current?.grid;
+            if (!g) return;
+            const position = { circuitId: ringSocketsOf, column: 'r1PlusR2' as const };
+            const result = g.applyChanges([{ ...position, before: g.read(position), after: text }], 'typed', 'recorded R1+R2 from the socket readings');
+            setRingSocketsOf(null);
+            g.moveTo(position);
+            g.say(result.refused[0] ? `Not saved — ${result.refused[0].message}` : `R1+R2 of circuit ${detail.circuits.find((c) => c.id === ringSocketsOf)?.number ?? ''} recorded as ${text} (the highest L-cpc reading).`, result.refused[0] ? 'error' : 'info');
+            g.focusGrid();
+          }}
+          onClose={(message) => {
+            setRingSocketsOf(null);
+            if (message) ctxRef.current?.grid.say(message);
+            ctxRef.current?.grid.focusGrid();
+          }}
+        />
+      )}
+      {history && (
+        <HistoryPanel
+          key={history.kind === 'cell' ? `${history.circuitId}:${history.column}` : 'board'}
+          boardId={board.id}
+          target={history}
+          onClose={() => {
+            setHistory(null);
+            ctxRef.current?.grid.focusGrid();
+          }}
+        />
+      )}
+      {calculatorsOpen && (
+        <CalculatorsPanel
+          detail={detail}
+          circuit={grid.activeCircuit}
+          activeLabel={active ? `${columnByKey[active.column].label} of circuit ${grid.activeCircuit?.number ?? ''}` : null}
+          onPut={(text) => {
+            const g = ctxRef.current?.grid;
+            const position = g?.active;
+            if (!g || !position) return;
+            const result = g.applyChanges([{ ...position, before: g.read(position), after: text }], 'typed', 'put a calculated value');
+            g.say(result.refused[0] ? `Not saved — ${result.refused[0].message}` : `Put ${text} into ${columnByKey[position.column].label} of circuit ${g.activeCircuit?.number ?? ''} (calculated).`, result.refused[0] ? 'error' : 'info');
+            setCalculatorsOpen(false);
+            g.focusGrid();
+          }}
+          onClose={() => {
+            setCalculatorsOpen(false);
+            ctxRef.current?.grid.focusGrid();
+          }}
+        />
+      )}
+      {editingBoard && (
+        <BoardDetailsForm
+          board={board}
+          onClose={(message) => {
+            setEditingBoard(false);
+            if (message) ctxRef.current?.grid.say(message);
+            ctxRef.current?.grid.focusGrid();
+          }}
+        />
+      )}
       {lockedReason && (
         <p role="note" className="shrink-0 border-b border-line bg-locked-soft px-3 py-1 text-sm text-locked">
           <span aria-hidden="true">▣ </span>
@@ -382,13 +512,16 @@ export function BoardConsole({ sync, detail, findings, role, lockReasons = null 
             <PhotoPanel boardId={board.id} lockedReason={lockedReason} panelRef={photoPanelRef} onLeave={grid.focusGrid} />
           </Suspense>
         )}
-        <FindingsPanel
-          findings={panelFindings}
-          circuitOrder={grid.shape.rows}
-          circuitNumbers={circuitNumbers}
-          onJump={onJumpToFinding}
-          listRef={findingsRef}
-        />
+        {layout.findings !== 'hidden' && (
+          <FindingsPanel
+            findings={panelFindings}
+            circuitOrder={grid.shape.rows}
+            circuitNumbers={circuitNumbers}
+            onJump={onJumpToFinding}
+            listRef={findingsRef}
+            narrow={layout.findings === 'narrow'}
+          />
+        )}
       </div>
       <ConflictList
         conflicts={sync.conflicts}

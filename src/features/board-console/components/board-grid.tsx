@@ -9,6 +9,7 @@ import type { CellIndex, EditState, GridPosition, IndexRange } from '../grid/gri
 import { buildStep, rowsBeforeJump, rowsToRender } from '../grid/rows-ahead.ts';
 import { afterNextFrame } from '../sync/after-next-frame.ts';
 import type { Conflict } from '../sync/types.ts';
+import { frozenColumn, type GridColumn } from '../layout/console-layout.ts';
 import { cellDomId, cellErrorDomId, cellFindingDomId, cellKey, rowHeaderDomId } from './dom-ids.ts';
 
 /** Fixed row height (px): dense, and what the virtualiser counts on. */
@@ -151,13 +152,17 @@ export function BoardGrid(props: BoardGridProps) {
     else if (top + rowHeight > view.top + view.height) el.scrollTop = view.top = top - headerHeight - lead;
     const left = offsets.lefts[activeCol] ?? 0;
     const width = columns[activeCol]?.width ?? 0;
-    if (left - rowHeaderWidth < view.left) el.scrollLeft = view.left = left - rowHeaderWidth;
+    // The circuit number and the description stay at the left: a cell must clear them to be seen.
+    const frozenWidth = rowHeaderWidth + (columns[0]?.key === frozenColumn && activeCol > 0 ? columns[0].width : 0);
+    if (left - frozenWidth < view.left) el.scrollLeft = view.left = Math.max(0, left - frozenWidth);
     else if (left + width > view.left + view.width) el.scrollLeft = view.left = left + width - view.width;
   }, [activeRow, activeCol, gridRef, offsets, columns]);
 
   const activeCircuit = activeRow >= 0 ? circuits[activeRow] : undefined;
   const activeColumn = activeCol >= 0 ? columns[activeCol] : undefined;
   const activeDescendant = activeCircuit && activeColumn && !edit ? cellDomId(activeCircuit.id, activeColumn.key) : undefined;
+
+  const linkNotes = useMemo(() => spurLinkNotes(circuits), [circuits]);
 
   const groups = useMemo(
     () =>
@@ -209,6 +214,7 @@ export function BoardGrid(props: BoardGridProps) {
               conflicts={conflicts.get(circuit.id) ?? emptyRowConflicts}
               errors={rowErrors(cellErrors, circuit.id)}
               pending={props.pending.get(circuit.id) ?? ''}
+              linkNote={linkNotes.get(circuit.id) ?? ''}
               onResolveConflict={props.onResolveConflict}
               editorRef={props.editorRef}
               onEditorBlur={props.onEditorBlur}
@@ -285,8 +291,10 @@ const GridHeader = memo(function GridHeader({ columns, groups, width, activeCol 
             aria-colindex={i + 2}
             aria-label={c.unit ? `${c.label} (${c.unit})` : c.label}
             title={c.meaning}
-            className={`flex flex-col justify-end border-r border-line px-1.5 pb-1 leading-tight ${i === activeCol ? 'bg-accent-soft' : ''}`}
-            style={{ width: c.width }}
+            className={`flex flex-col justify-end border-r border-line px-1.5 pb-1 leading-tight ${i === activeCol ? 'bg-accent-soft' : ''} ${
+              c.key === frozenColumn ? 'z-10 bg-surface' : ''
+            } ${summaryOf(c) ? 'italic' : ''}`}
+            style={{ width: c.width, ...frozenStyle(c) }}
           >
             <span className="truncate text-xs font-semibold">{c.label}</span>
             <span className="h-3.5 truncate text-[11px] text-muted">{c.unit ?? ''}</span>
@@ -296,6 +304,23 @@ const GridHeader = memo(function GridHeader({ columns, groups, width, activeCol 
     </div>
   );
 });
+
+function summaryOf(column: ColumnDef): readonly ColumnDef['key'][] | undefined {
+  return (column as GridColumn).summaryOf;
+}
+
+/** A folded group's cell: the values of its columns side by side ("60898 B 32 6"). */
+function summaryText(circuit: Circuit, keys: readonly ColumnDef['key'][]): string {
+  const parts: string[] = [];
+  for (const key of keys) {
+    const text = cellText(circuit, key);
+    if (text !== '') parts.push(text);
+  }
+  return parts.join(' ');
+}
+
+/** The frozen description's left edge: just right of the circuit number. */
+const frozenStyle = (column: ColumnDef) => (column.key === frozenColumn ? { position: 'sticky' as const, left: rowHeaderWidth } : undefined);
 
 /** The refused-text messages of one circuit (a shared empty map when none, so rows stay memoised). */
 function rowErrors(errors: ReadonlyMap<string, string>, circuitId: number): ReadonlyMap<string, string> {
@@ -308,7 +333,34 @@ function rowErrors(errors: ReadonlyMap<string, string>, circuitId: number): Read
   return found ?? emptyRowErrors;
 }
 
+/**
+ * What a row says of its spur links, beside its description: a spur names its ring and origin
+ * (and whether it is fused), a ring lists its spurs.
+ */
+export function spurLinkNotes(circuits: readonly Circuit[]): Map<number, string> {
+  const notes = new Map<number, string>();
+  const byId = new Map(circuits.map((c) => [c.id, c]));
+  const spursOf = new Map<number, Circuit[]>();
+  for (const c of circuits) {
+    if (c.spurRingId === null) continue;
+    const ring = byId.get(c.spurRingId);
+    const protection = c.spurProtection ? `, ${c.spurProtection}` : '';
+    notes.set(c.id, ring ? `spur of ${ring.number}${c.spurOriginPoint ? ` from ${c.spurOriginPoint}` : ''}${protection}` : 'spur of a ring not on this board');
+    if (ring) {
+      let list = spursOf.get(ring.id);
+      if (!list) spursOf.set(ring.id, (list = []));
+      list.push(c);
+    }
+  }
+  for (const [ringId, spurs] of spursOf) {
+    notes.set(ringId, `spurs: ${spurs.map((s) => `${s.number}${s.spurProtection ? ` (${s.spurProtection})` : ''}`).join(', ')}`);
+  }
+  return notes;
+}
+
 interface GridRowProps {
+  /** The row's spur link in words ("spur of 3 from socket 4, unfused"; "spurs: 5, 6"), or ''. */
+  linkNote: string;
   circuit: Circuit;
   index: number;
   top: number;
@@ -379,7 +431,8 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
             circuitNumber={circuit.number}
             column={column}
             col={col}
-            text={cellText(circuit, column.key)}
+            text={summaryOf(column) ? summaryText(circuit, summaryOf(column)!) : cellText(circuit, column.key)}
+            note={column.key === 'description' ? props.linkNote : ''}
             limReason={reading && reading.text.toUpperCase() === 'LIM' ? reading.reason : null}
             isActive={isActive}
             selected={hasRange && col >= rangeLeft && col <= rangeRight}
@@ -402,6 +455,8 @@ const GridRow = memo(function GridRow(props: GridRowProps) {
 });
 
 interface GridCellProps {
+  /** Words shown after the value, muted (the description's spur link). */
+  note: string;
   circuitId: number;
   circuitNumber: string;
   column: ColumnDef;
@@ -449,8 +504,8 @@ const GridCell = memo(function GridCell(props: GridCellProps) {
       onDoubleClick={() => onDoubleClick({ circuitId, column: column.key })}
       className={`relative flex items-center border-r border-line ${severity ? severityCellClass[severity] : ''} ${
         selected && !isActive ? 'bg-accent-soft!' : ''
-      } ${isActive ? 'z-[1] outline-2 -outline-offset-2 outline-accent' : ''}`}
-      style={{ width: column.width }}
+      } ${isActive ? 'z-[1] outline-2 -outline-offset-2 outline-accent' : ''} ${column.key === frozenColumn ? 'z-[2] border-r-line-strong bg-surface' : ''}`}
+      style={{ width: column.width, ...frozenStyle(column) }}
     >
       {isActive && edit ? (
         <CellEditor
@@ -466,6 +521,7 @@ const GridCell = memo(function GridCell(props: GridCellProps) {
           className={`min-w-0 flex-1 truncate pl-1.5 ${marked ? 'pr-4' : 'pr-1'} ${column.valueKind === 'text' || column.valueKind === 'choice' ? '' : 'font-mono text-[13px]'}`}
         >
           {text}
+          {props.note !== '' && <span className="text-xs text-muted"> · {props.note}</span>}
         </span>
       )}
       {conflict && (

@@ -42,7 +42,7 @@ export const ConsoleHeader = memo(function ConsoleHeader({ board, site, job, pre
           aria-label={locked ? `Locked${board.lockedBy ? ` by ${board.lockedBy.name}` : ''}` : 'Open for entry'}
         >
           <span aria-hidden="true">{locked ? '▣ ' : '✎ '}</span>
-          {locked ? `Locked${board.lockedBy ? ` by ${board.lockedBy.name}` : ''}` : 'Open'}
+          {locked ? `Locked${board.lockedBy ? ` by ${board.lockedBy.name}` : ''}${board.lockedAt ? ` on ${new Date(board.lockedAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })}` : ''}` : 'Open'}
         </span>
         <span className="ml-auto flex items-baseline gap-3">
           <span className={present.length === 0 ? 'text-muted' : 'font-medium'}>

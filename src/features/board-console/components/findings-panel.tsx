@@ -12,6 +12,8 @@ export interface FindingsPanelProps {
   /** Jump to the finding's cell and give the focus back to the grid. */
   onJump: (finding: Finding) => void;
   listRef: RefObject<HTMLUListElement | null>;
+  /** A narrower panel, for a laptop screen (the grid gets the width back). */
+  narrow?: boolean;
 }
 
 function columnWords(finding: Finding): string {
@@ -32,7 +34,7 @@ function columnLabel(key: string): string {
  * is a button: Enter (or a click) puts the cursor on its cell (for a count, the first circuit
  * lacking that reading) and the focus back in the grid. ↑/↓ move between them.
  */
-export const FindingsPanel = memo(function FindingsPanel({ findings, circuitOrder, circuitNumbers, onJump, listRef }: FindingsPanelProps) {
+export const FindingsPanel = memo(function FindingsPanel({ findings, circuitOrder, circuitNumbers, onJump, listRef, narrow = false }: FindingsPanelProps) {
   const [shown, setShown] = useState<ReadonlySet<Severity>>(() => new Set(valueSeverities));
   const counts = useMemo(() => {
     const c: Record<Severity, number> = { error: 0, warning: 0, note: 0, todo: 0 };
@@ -66,7 +68,7 @@ export const FindingsPanel = memo(function FindingsPanel({ findings, circuitOrde
   };
 
   return (
-    <section aria-labelledby={headingId} className="flex min-h-0 w-80 shrink-0 flex-col border-l border-line bg-surface">
+    <section aria-labelledby={headingId} className={`flex min-h-0 ${narrow ? 'w-56' : 'w-80'} shrink-0 flex-col border-l border-line bg-surface`}>
       <div className="border-b border-line px-2 py-1.5">
         <h2 id={headingId} className="text-sm font-semibold">
           Findings <span className="font-normal text-muted">({valueCount}{toDoCells > 0 ? ` · ${toDoCells} readings to do` : ''})</span>

@@ -27,6 +27,7 @@ import { formatTsv, parseTsv } from '../grid/tsv.ts';
 import { emptyUndoStack, popRedo, popUndo, pushUndo, redoWrites, undoWrites, type CellChange, type CellWrite, type UndoEntry, type UndoStack } from '../grid/undo-stack.ts';
 import type { BoardSync, EntryMethod } from '../sync/types.ts';
 import { cellKey } from './dom-ids.ts';
+import type { GridColumn } from '../layout/console-layout.ts';
 import { writeCellText } from './write-cell-text.ts';
 
 /** A short message for the status line (what a key just did, or why it could not). */
@@ -53,7 +54,15 @@ export interface GridControllerOptions {
 export interface ApplyResult {
   written: number;
   refused: Array<{ position: GridPosition; message: string }>;
+  /** Cells whose text lost something unambiguous on the way in (a unit, a dictation comma), in words. */
+  stripped: Array<{ position: GridPosition; message: string }>;
 }
+
+/**
+ * How the typist is moving through the grid: down columns (Enter, ↑/↓) or along rows (Tab,
+ * ←/→). A tick or a cross moves the same way.
+ */
+export type PassDirection = 'column' | 'row';
 
 /**
  * The console grid's behaviour: cursor, selection, editing, and every edit key (commit and move,
@@ -82,6 +91,12 @@ export function useGridController(options: GridControllerOptions) {
   syncRef.current = sync;
   const lockedRef = useRef(lockedReason);
   lockedRef.current = lockedReason;
+  /** Folded groups' summary columns, by key, with the words that say how to unfold them. */
+  const summariesRef = useRef<ReadonlyMap<string, string>>(new Map());
+  summariesRef.current = useMemo(
+    () => new Map(columns.filter((c) => (c as GridColumn).summaryOf).map((c) => [c.key, `${c.label.replace(/ ▸$/, '')} is folded: unfold the group to type here`])),
+    [columns],
+  );
 
   const [state, dispatchRaw] = useReducer(
     (s: GridState, a: GridAction) => gridReducer(s, a, shapeRef.current),
@@ -135,11 +150,23 @@ export function useGridController(options: GridControllerOptions) {
     }
   }, [shape, dispatch, say]);
 
-  /** Enter's stops (see enter-stops.ts), read from the board as it is when the key arrives. */
-  const applies: Applies = useCallback((row, column) => {
-    const circuit = circuitsRef.current.get(shapeRef.current.rows[row] ?? -1);
-    return circuit ? enterStopsAt(circuit, column) : true;
-  }, []);
+  /** Enter's stops (see enter-stops.ts) from a cell of column `from`, read from the board as it is when the key arrives. */
+  const appliesFrom = useCallback(
+    (from: ColumnDef['key']): Applies =>
+      (row, column) => {
+        if (summariesRef.current.has(column)) return false;
+        const circuit = circuitsRef.current.get(shapeRef.current.rows[row] ?? -1);
+        return circuit ? enterStopsAt(circuit, column, from) : true;
+      },
+    [],
+  );
+
+  /** Down columns or along rows: set by the keys that move, read by a tick. */
+  const passRef = useRef<PassDirection>('column');
+  const notePass = (move: Move) => {
+    if (move === 'next-cell' || move === 'previous-cell' || move === 'left' || move === 'right') passRef.current = 'row';
+    else if (move === 'up' || move === 'down' || move === 'down-column' || move === 'up-column') passRef.current = 'column';
+  };
 
   /** The notice of the last Enter that skipped cells: the next Enter that skips none clears it. */
   const skipNoticeRef = useRef<number | null>(null);
@@ -153,13 +180,16 @@ export function useGridController(options: GridControllerOptions) {
       const shapeNow = shapeRef.current;
       const from = activeIndexOf(stateRef.current, shapeNow);
       if (!from) return;
-      const move = columnMove(from, direction, shapeNow, applies);
+      passRef.current = 'column';
+      const move = columnMove(from, direction, shapeNow, appliesFrom(shapeNow.columns[from.col]!));
       dispatch({ type: 'focus', position: positionAt(shapeNow, move.to) });
       const words = describeColumnMove(from, move, direction, shapeNow, {
         circuit: (row) => circuitsRef.current.get(shapeNow.rows[row] ?? -1)?.number ?? '',
         column: (key) => columnByKey[key].label,
       });
-      if (words) {
+      if (move.to.row === from.row && move.to.col === from.col) {
+        skipNoticeRef.current = say(`${keyName}: no reading ${direction === 'down' ? 'further on' : 'before this'} needs a value — this is the ${direction === 'down' ? 'last' : 'first'} reading cell of the pass.`);
+      } else if (words) {
         skipNoticeRef.current = say(`${keyName}: ${words}`);
       } else if (skipNoticeRef.current !== null) {
         const stale = skipNoticeRef.current;
@@ -167,7 +197,7 @@ export function useGridController(options: GridControllerOptions) {
         setNotice((current) => (current?.id === stale ? null : current));
       }
     },
-    [applies, dispatch, say],
+    [appliesFrom, dispatch, say],
   );
 
   const read = useCallback((position: GridPosition) => {
@@ -204,7 +234,7 @@ export function useGridController(options: GridControllerOptions) {
    */
   const applyChanges = useCallback(
     (changes: readonly CellChange[], how: EntryMethod, label: string, record = true): ApplyResult => {
-      const result: ApplyResult = { written: 0, refused: [] };
+      const result: ApplyResult = { written: 0, refused: [], stripped: [] };
       if (changes.length === 0) return result;
       if (refuseIfLocked()) {
         result.refused = changes.map((c) => ({ position: c, message: lockedRef.current ?? '' }));
@@ -224,6 +254,9 @@ export function useGridController(options: GridControllerOptions) {
         }
         setCellError(change, null);
         if (outcome.written) result.written += 1;
+        if (outcome.stripped) {
+          result.stripped.push({ position: change, message: `${columnByKey[change.column].label} of circuit ${circuit.number}: ${outcome.stripped} (saved ${outcome.text})` });
+        }
         done.push({ circuitId: change.circuitId, column: change.column, before, after: outcome.text, beforeReason, afterReason: outcome.reason });
       }
       if (record) setUndo(pushUndo(undoRef.current, { label, changes: done }));
@@ -243,11 +276,16 @@ export function useGridController(options: GridControllerOptions) {
       if (refuseIfLocked()) return;
       const position = resolveActive(stateRef.current, shapeRef.current);
       if (!position) return;
+      const folded = summariesRef.current.get(position.column);
+      if (folded) {
+        say(`${folded}.`, 'error');
+        return;
+      }
       const text = draft ?? read(position);
       // Synchronously, so the text box exists and has the focus before the next key arrives.
       flushSync(() => dispatch({ type: 'start-edit', mode, draft: text }));
     },
-    [dispatch, read, refuseIfLocked],
+    [dispatch, read, refuseIfLocked, say],
   );
 
   const cancelEdit = useCallback(() => {
@@ -288,7 +326,12 @@ export function useGridController(options: GridControllerOptions) {
       dispatch({ type: 'end-edit' });
       if (move === 'down-column') stepColumn('down', 'Enter');
       else if (move === 'up-column') stepColumn('up', 'Shift+Enter');
-      else if (move) dispatch({ type: 'move', move });
+      else if (move) {
+        notePass(move);
+        dispatch({ type: 'move', move });
+      }
+      const stripped = result.stripped[0];
+      if (stripped) say(`Saved — ${stripped.message}.`);
       if (!keepFocus) focusGrid();
       return true;
     },
@@ -308,7 +351,12 @@ export function useGridController(options: GridControllerOptions) {
   const clearSelection = useCallback(() => {
     const range = currentRange();
     if (!range) return;
-    const result = applyChanges(clearChanges(range, shapeRef.current, read), 'typed', 'cleared');
+    // A folded group's summary stands for several cells the typist cannot see: it is not cleared.
+    const result = applyChanges(
+      clearChanges(range, shapeRef.current, read).filter((c) => !summariesRef.current.has(c.column)),
+      'typed',
+      'cleared',
+    );
     if (result.refused.length > 0) say(`Not cleared — ${describeRefusals(result.refused)}`, 'error');
   }, [applyChanges, read, say]);
 
@@ -357,7 +405,9 @@ export function useGridController(options: GridControllerOptions) {
       const range = currentRange();
       if (!range) return;
       const block = parseTsv(text);
-      const { changes, written } = pasteChanges(block, range, shapeRef.current, read);
+      const pasted = pasteChanges(block, range, shapeRef.current, read);
+      const written = pasted.written;
+      const changes = pasted.changes.filter((c) => !summariesRef.current.has(c.column));
       if (changes.length === 0) {
         say('Nothing to paste.', 'error');
         return;
@@ -371,10 +421,12 @@ export function useGridController(options: GridControllerOptions) {
           active: positionAt(shapeNow, { row: written.top, col: written.left }),
         });
       }
+      const strippedWords =
+        result.stripped.length === 0 ? '' : ` ${result.stripped.length === 1 ? result.stripped[0]!.message : `${result.stripped.length} cells cleaned; first: ${result.stripped[0]!.message}`}.`;
       say(
         result.refused.length > 0
-          ? `Pasted ${changes.length - result.refused.length} of ${changes.length} cells; ${describeRefusals(result.refused)}`
-          : `Pasted ${changes.length} cell${changes.length === 1 ? '' : 's'}.`,
+          ? `Pasted ${changes.length - result.refused.length} of ${changes.length} cells; ${describeRefusals(result.refused)}${strippedWords}`
+          : `Pasted ${changes.length} cell${changes.length === 1 ? '' : 's'}.${strippedWords}`,
         result.refused.length > 0 ? 'error' : 'info',
       );
     },
@@ -431,7 +483,10 @@ export function useGridController(options: GridControllerOptions) {
     focusGrid();
   }, [cancelEdit, focusGrid, refuseIfLocked, replay, say]);
 
-  /** A tick or cross typed on a ✓/✗ cell: saved at once, and the cursor goes down the column. */
+  /**
+   * A tick or cross typed on a ✓/✗ cell: saved at once, and the cursor moves on the way the typist
+   * is moving — down the column in a column pass, to the next cell along the row in a row pass.
+   */
   const tick = useCallback(
     (position: GridPosition, key: string) => {
       const circuit = circuitsRef.current.get(position.circuitId);
@@ -441,9 +496,15 @@ export function useGridController(options: GridControllerOptions) {
         say(`Not saved — ${describeRefusals(result.refused)}`, 'error');
         return;
       }
+      if (passRef.current === 'row') {
+        const at = activeIndexOf(stateRef.current, shapeRef.current);
+        const shapeNow = shapeRef.current;
+        if (at && !(at.row === shapeNow.rows.length - 1 && at.col === shapeNow.columns.length - 1)) dispatch({ type: 'move', move: 'next-cell' });
+        return;
+      }
       stepColumn('down', /^[vV✓]$/.test(key) ? 'Tick' : 'Cross');
     },
-    [applyChanges, read, say, stepColumn],
+    [applyChanges, dispatch, read, say, stepColumn],
   );
 
   const onKeyDown = useCallback(
@@ -481,6 +542,7 @@ export function useGridController(options: GridControllerOptions) {
 
       const move = (m: Move, extend = event.shiftKey) => {
         event.preventDefault();
+        notePass(m);
         dispatch({ type: 'move', move: m, extend });
       };
       switch (event.key) {

@@ -1,6 +1,7 @@
 import type { Circuit, CircuitFields } from '../../../../shared/schemas/boards.ts';
 import { isReadingKey, type ColumnKey } from '../../../../shared/schemas/columns.ts';
-import { fieldText, normaliseReading, parseDetailText } from '../grid/cell-value.ts';
+import { cleanReading } from '../../../../shared/readings/clean-reading.ts';
+import { fieldText, parseDetailText } from '../grid/cell-value.ts';
 import type { BoardSync, EntryMethod } from '../sync/types.ts';
 
 /**
@@ -8,13 +9,14 @@ import type { BoardSync, EntryMethod } from '../sync/types.ts';
  * false when the value was already there.
  */
 export type WriteResult =
-  | { ok: true; written: boolean; text: string; reason: string | null }
+  | { ok: true; written: boolean; text: string; reason: string | null; stripped?: string | null }
   | { ok: false; message: string };
 
 /**
  * Writes the text of one grid cell through the sync engine (never the API directly).
  *
- * - A reading column stores the text as typed, short forms written out (see `normaliseReading`). A LIM keeps the
+ * - A reading column stores the text as typed, short forms written out, the column's unit or a
+ *   dictation comma taken off and text that is not a value refused (see `cleanReading`). A LIM keeps the
  *   reason it already had unless one is given; any other value drops the reason.
  * - A detail column stores the typed field: the text is converted first, and text that cannot be
  *   converted is refused with a message for the cell and nothing is written.
@@ -30,13 +32,16 @@ export function writeCellText(
 ): WriteResult {
   const how = options.how ?? 'typed';
   if (isReadingKey(column)) {
-    const value = normaliseReading(column, text);
+    const cleaned = cleanReading(column, text);
+    if (!cleaned.ok) return cleaned;
+    const value = cleaned.text;
+    const stripped = cleaned.stripped;
     const current = circuit.cells[column];
     const isLim = value.toUpperCase() === 'LIM';
     const reason = options.reason !== undefined ? options.reason : isLim ? (current?.reason ?? null) : null;
-    if ((current?.text ?? '') === value && (current?.reason ?? null) === reason) return { ok: true, written: false, text: value, reason };
+    if ((current?.text ?? '') === value && (current?.reason ?? null) === reason) return { ok: true, written: false, text: value, reason, stripped };
     sync.writeCell(circuit.id, column, value, { reason, how });
-    return { ok: true, written: true, text: value, reason };
+    return { ok: true, written: true, text: value, reason, stripped };
   }
   const parsed = parseDetailText(column, text);
   if (!parsed.ok) return parsed;

@@ -27,14 +27,29 @@ export function readingApplies(circuit: Pick<Circuit, 'kind' | 'rcdType' | 'afdd
 }
 
 /**
- * Whether Enter (and Shift+Enter, a tick, same-as-above) stops at this cell of the circuit:
- * - a circuit-detail cell: always;
+ * Whether Enter (and Shift+Enter, a tick, same-as-above) stops at this cell of the circuit, when
+ * moving from a cell of column `from`:
+ * - a circuit-detail cell: only when the move started in a detail column. A pass down a reading
+ *   column goes on to the next reading column, never into the circuit's details (a correction
+ *   typed after the end of a column must not land in, say, a hand-given maximum Zs);
  * - a reading the circuit needs (`requiredColumns` of the checker): always;
  * - any other reading: only when it holds a value, so a value typed where it does not apply can
  *   still be reached and corrected. An empty one is passed.
  */
-export function enterStopsAt(circuit: CircuitForStops, column: ColumnKey): boolean {
-  if (!isReadingKey(column)) return true;
+export function enterStopsAt(circuit: CircuitForStops, column: ColumnKey, from?: ColumnKey): boolean {
+  if (!isReadingKey(column)) return from === undefined || !isReadingKey(from);
   if ((circuit.cells[column]?.text ?? '') !== '') return true;
   return readingApplies(circuit, column);
+}
+
+/**
+ * Where a jump to a circuit lands when the typist was in `column`: the same column when it is a
+ * reading that circuit needs (or already holds a value there), else the circuit's first needed
+ * reading still empty, else its first needed reading. A detail column is never kept by a jump.
+ */
+export function jumpColumn(circuit: CircuitForStops, column: ColumnKey | undefined, order: readonly ColumnKey[]): { column: ColumnKey; kept: boolean } {
+  if (column && isReadingKey(column) && ((circuit.cells[column]?.text ?? '') !== '' || readingApplies(circuit, column))) return { column, kept: true };
+  const needed = order.filter((key): key is ReadingKey => isReadingKey(key) && readingApplies(circuit, key));
+  const empty = needed.find((key) => (circuit.cells[key]?.text ?? '') === '');
+  return { column: empty ?? needed[0] ?? column ?? 'description', kept: false };
 }

@@ -29,13 +29,15 @@
  * `normaliseReading`). A column may be given once per circuit per line.
  */
 
-import { columnByKey, columns, type ColumnDef, type ColumnKey } from '../../../../shared/schemas/columns.ts';
+import { columnByKey, columns, type CircuitKind, type ColumnDef, type ColumnKey } from '../../../../shared/schemas/columns.ts';
 
 /** A circuit of the board as the quick-entry line needs it. */
 export interface QuickEntryCircuit {
   id: number;
   /** As the board numbers it: "7", "3L2". */
   number: string;
+  /** Ring, radial…: decides what `r2` means for it (see `columnForCircuit`). */
+  kind?: CircuitKind;
 }
 
 export interface QuickEntryContext {
@@ -51,6 +53,21 @@ export interface QuickEntry {
   column: ColumnKey;
   /** The value exactly as typed (quotes removed). */
   text: string;
+  /** Set when a column word was read for this circuit's kind: "r2 on a radial is R2 (cpc by long lead)". */
+  kindNote?: string;
+}
+
+/**
+ * What a column word means for a circuit of this kind. The trade's `r2` is the cpc end to end on a
+ * ring (step 1 of the ring test) but the cpc alone by long lead on any other circuit, so `r2` said
+ * of a radial, a spur or a distribution circuit goes to the R2 column, and the entry says so.
+ */
+export function columnForCircuit(column: ColumnDef, word: string, kind: CircuitKind | undefined): { column: ColumnDef; note?: string } {
+  if (column.key === 'ringR2' && kind !== undefined && kind !== 'ring') {
+    const r2 = columnByKey.r2;
+    return { column: r2, note: `${word} on a ${kind} is ${r2.label} (${r2.meaning.toLowerCase()})` };
+  }
+  return { column };
 }
 
 export type QuickEntryResult = { ok: true; entries: QuickEntry[] } | { ok: false; message: string };
@@ -168,7 +185,10 @@ function tokenize(input: string): { ok: true; tokens: Token[] } | { ok: false; m
     }
     let j = i;
     while (j < chars.length && !/\s/.test(chars[j] as string)) j++;
-    tokens.push({ text: chars.slice(i, j).join(''), quoted: false });
+    // Dictation separates pairs with commas ("7 zs .44, ir >200"): a comma (or semicolon) at the end
+    // of a word, or standing alone, separates; one inside a word ("0,44") stays for the cell to refuse.
+    const word = chars.slice(i, j).join('').replace(/[,;]+$/, '');
+    if (word !== '') tokens.push({ text: word, quoted: false });
     i = j;
   }
   return { ok: true, tokens };
@@ -224,6 +244,8 @@ function walk(input: string, ctx: QuickEntryContext): Walk {
   }
   const tokenized = tokenize(input);
   if (!tokenized.ok) return fail(tokenized.message);
+  // Only separators (",", ";"): nothing to write.
+  if (tokenized.tokens.length === 0) return fail('type a circuit and a value, e.g. 7 .44 or 7 zs .44');
 
   const activeColumn: ColumnDef | undefined = columnByKey[ctx.activeColumn];
   const entries: QuickEntry[] = [];
@@ -233,14 +255,15 @@ function walk(input: string, ctx: QuickEntryContext): Walk {
   let pending: { column: ColumnDef; word: string } | undefined;
   let lastWritten: ColumnDef | undefined;
 
-  const write = (column: ColumnDef, text: string): string | null => {
+  const write = (named: ColumnDef, text: string, word?: string): string | null => {
     if (!circuit) return 'say the circuit first, e.g. 7 zs .44';
+    const { column, note } = word === undefined ? { column: named, note: undefined } : columnForCircuit(named, word, circuit.kind);
     if (text.trim() === '') return `${column.label} needs a value: "" is empty (to clear a cell, use Delete in the grid)`;
     const columnsOfCircuit = given.get(circuit.id) ?? new Set<ColumnKey>();
     if (columnsOfCircuit.has(column.key)) return `${column.label} is given twice for circuit ${circuit.number}`;
     columnsOfCircuit.add(column.key);
     given.set(circuit.id, columnsOfCircuit);
-    entries.push({ circuitId: circuit.id, circuitNumber: circuit.number, column: column.key, text });
+    entries.push({ circuitId: circuit.id, circuitNumber: circuit.number, column: column.key, text, ...(note ? { kindNote: note } : {}) });
     lastWritten = column;
     return null;
   };
@@ -266,6 +289,11 @@ function walk(input: string, ctx: QuickEntryContext): Walk {
           break;
         }
         if (!activeColumn) return fail(`no column is active: say which, e.g. ${circuit?.number ?? 7} zs ${token.text}`);
+        if (activeColumn.storage === 'detail' && !takesAnyWord(activeColumn)) {
+          // A figure without a column word goes only to a reading column: a slip of the cursor
+          // into a detail such as "Max Zs given" must not take a reading.
+          return fail(`the cursor is on ${activeColumn.label}, a circuit detail: name the column, e.g. ${circuit?.number ?? 7} zs ${token.text}`);
+        }
         if (!token.quoted && !takesAnyWord(activeColumn) && !looksLikeValue(token.text)) return fail(unknownColumn(token.text));
         const problem = write(activeColumn, token.text);
         if (problem) return fail(problem);
@@ -274,7 +302,7 @@ function walk(input: string, ctx: QuickEntryContext): Walk {
       }
       case 'afterColumn': {
         if (!pending) return fail('a column word needs a value after it');
-        const problem = write(pending.column, token.text);
+        const problem = write(pending.column, token.text, pending.word);
         if (problem) return fail(problem);
         pending = undefined;
         state = 'afterValue';
@@ -344,7 +372,8 @@ export function describeEntries(entries: readonly QuickEntry[]): string {
     }
     group.parts.push(`${columnByKey[entry.column].label} ${shownValue(entry.text)}`);
   }
-  return `Wrote ${byCircuit.map((g) => `${g.parts.join(', ')} to circuit ${g.number}`).join('; ')}`;
+  const notes = entries.flatMap((e) => (e.kindNote ? [e.kindNote] : []));
+  return `Wrote ${byCircuit.map((g) => `${g.parts.join(', ')} to circuit ${g.number}`).join('; ')}${notes.length > 0 ? ` (${notes.join('; ')})` : ''}`;
 }
 
 /**
@@ -354,7 +383,7 @@ export function describeEntries(entries: readonly QuickEntry[]): string {
 export function quickEntryWordsSection(): { title: string; note: string; rows: Array<{ label: string; words: string[] }> } {
   return {
     title: 'Quick-entry column words',
-    note: 'Type a circuit, then column words and values: 7 zs .44 ir >200. A value straight after the circuit goes to the active column; quote values with spaces: 7 desc "kitchen sockets".',
+    note: 'Type a circuit, then column words and values: 7 zs .44 ir >200 (commas between pairs are fine). A value straight after the circuit goes to the active column; quote values with spaces: 7 desc "kitchen sockets". r2 means the ring’s cpc end to end on a ring, and R2 by long lead on any other circuit.',
     rows: columns
       .map((column) => ({
         label: `${column.label}${column.unit ? ` (${column.unit})` : ''}: ${column.meaning}`,

@@ -159,14 +159,18 @@ export function QuickEntryLine({
         Enter writes · {describeShortcut(QUICK_ENTRY_UNDO_KEY, platform)} on an empty line undoes the last entry · ↑ recalls
         the last line · Esc returns to the grid
       </p>
-      {error && (
-        <p id={errorId} role="alert" className="mt-0.5 text-sm text-danger">
-          {error}
+      {/* One line for the answer, of fixed height: a mistake replaces the last answer (it does not
+          stack under it), and the grid below does not move when either appears. */}
+      <div className="relative mt-0.5 h-5 text-sm">
+        <p aria-live="polite" className={`truncate text-ok ${error ? 'invisible' : ''}`} title={status || undefined}>
+          {error ? '' : status}
         </p>
-      )}
-      <p aria-live="polite" className="mt-0.5 min-h-5 text-sm text-ok">
-        {status}
-      </p>
+        {error && (
+          <p id={errorId} role="alert" className="absolute inset-0 truncate text-danger" title={error}>
+            {error}
+          </p>
+        )}
+      </div>
     </div>
   );
 }

@@ -1,5 +1,4 @@
 import { Link } from 'react-router-dom';
-import { readingKeys } from '../../../../shared/schemas/columns.ts';
 import { jobStateLabels } from '../../../../shared/schemas/sites.ts';
 import { useRecord } from './record-context.tsx';
 
@@ -64,7 +63,6 @@ export function JobHeader() {
             </thead>
             <tbody>
               {boards.map((board) => {
-                const total = board.circuitCount * readingKeys.length;
                 return (
                   <tr key={board.id} className="border-t border-line">
                     <td className="py-1 pr-3">
@@ -77,7 +75,7 @@ export function JobHeader() {
                     <td className="py-1 pr-3">{board.state === 'locked' ? '🔒 locked' : 'open'}</td>
                     <td className="py-1 pr-3 text-right tabular-nums">{board.circuitCount}</td>
                     <td className="py-1 tabular-nums">
-                      {board.cellsFilled} / {total} cells
+                      {board.readingsDone} / {board.readingsRequired} needed readings
                     </td>
                   </tr>
                 );

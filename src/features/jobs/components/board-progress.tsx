@@ -11,17 +11,27 @@ export function readingCellCount(circuitCount: number): number {
   return circuitCount * countedKeys.length;
 }
 
-/** Cells filled out of the board's reading cells, as a number and a bar. */
-export function BoardProgress({ cellsFilled, circuitCount }: { cellsFilled: number; circuitCount: number }) {
-  const total = readingCellCount(circuitCount);
-  const share = total === 0 ? 0 : Math.min(1, cellsFilled / total);
+/** Whole per cent of the needed readings typed; 100 only when every one is there. */
+export function progressPercent(done: number, required: number): number {
+  if (required === 0) return 0;
+  const share = Math.floor((done / required) * 100);
+  return done >= required ? 100 : Math.min(99, share);
+}
+
+/**
+ * Progress of a board: the readings its circuits need (the checker's required columns, so ring
+ * readings of radials and RCD times of circuits without an RCD are not counted) and how many are
+ * typed, as a bar, a count and a percentage. A finished board reads 100 %.
+ */
+export function BoardProgress({ readingsDone, readingsRequired }: { readingsDone: number; readingsRequired: number }) {
+  const percent = progressPercent(readingsDone, readingsRequired);
   return (
     <span className="flex items-center gap-2">
       <span aria-hidden="true" className="h-1.5 w-20 shrink-0 overflow-hidden rounded-full bg-line">
-        <span className="block h-full rounded-full bg-accent" style={{ width: `${Math.round(share * 100)}%` }} />
+        <span className="block h-full rounded-full bg-accent" style={{ width: `${percent}%` }} />
       </span>
       <span className="tabular-nums">
-        {cellsFilled} / {total} <span className="text-muted">cells</span>
+        {percent} % <span className="text-muted">· {readingsDone} / {readingsRequired} readings</span>
       </span>
     </span>
   );

@@ -1,4 +1,4 @@
-import { useEffect, useId, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent, type MouseEvent } from 'react';
+import { useDeferredValue, useEffect, useId, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent, type MouseEvent } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { tinykeys } from 'tinykeys';
 import type { BoardSummary } from '../../../../shared/schemas/boards.ts';
@@ -15,7 +15,7 @@ import { NewBoardForm } from './forms/new-board-form.tsx';
 import { NewJobForm } from './forms/new-job-form.tsx';
 import { SiteForm } from './forms/site-form.tsx';
 import { searchJobs, visibleBoards } from '../search-jobs.ts';
-import { BoardProgress, readingCellCount } from './board-progress.tsx';
+import { BoardProgress, progressPercent } from './board-progress.tsx';
 import { BoardStateLabel } from './board-state-label.tsx';
 
 const jobKindNames: Record<Job['kind'], string> = {
@@ -33,7 +33,7 @@ const boardRowId = (boardId: number) => `jobs-board-${boardId}`;
 
 function describeBoard(board: BoardSummary): string {
   const where = board.location ? `, ${board.location}` : '';
-  return `${board.reference}${where} (${board.site.client}, ${board.job.reference}): ${board.state}, ${board.circuitCount} circuits, ${board.cellsFilled} of ${readingCellCount(board.circuitCount)} cells filled. Enter opens it.`;
+  return `${board.reference}${where} (${board.site.client}, ${board.job.reference}): ${board.state}, ${board.circuitCount} circuits, ${progressPercent(board.readingsDone, board.readingsRequired)} % done, ${board.readingsDone} of ${board.readingsRequired} needed readings typed. Enter opens it.`;
 }
 
 /** True when a key press belongs to a field the person is typing in. */
@@ -54,7 +54,11 @@ export function JobsPage() {
   const jobs = useJobs();
   const navigate = useNavigate();
   const [searchParams, setSearchParams] = useSearchParams();
-  const search = searchParams.get('q') ?? '';
+  // The box keeps its own text: a key typed while the address is still being updated for the one
+  // before it (one key every 5 ms, as a practised typist or a barcode reader types) would otherwise
+  // be overwritten by the address's older text and lost. The address follows the box.
+  const [search, setSearchText] = useState(() => searchParams.get('q') ?? '');
+  const listQuery = useDeferredValue(search);
   const [activeBoardId, setActiveBoardId] = useState<number | null>(null);
   const searchRef = useRef<HTMLInputElement>(null);
   const hintId = useId();
@@ -64,7 +68,7 @@ export function JobsPage() {
   const [notice, setNotice] = useState('');
 
   const tree = jobs.data ?? [];
-  const shown = useMemo(() => searchJobs(jobs.data ?? [], search), [jobs.data, search]);
+  const shown = useMemo(() => searchJobs(jobs.data ?? [], listQuery), [jobs.data, listQuery]);
   const boards = useMemo(() => visibleBoards(shown), [shown]);
   // A board hidden by the search is no longer the chosen one.
   const activeBoard = boards.find((b) => b.id === activeBoardId) ?? null;
@@ -115,16 +119,23 @@ export function JobsPage() {
     if (activeBoard) document.getElementById(boardRowId(activeBoard.id))?.scrollIntoView({ block: 'nearest' });
   }, [activeBoard]);
 
-  function setSearch(value: string) {
+  const urlQuery = searchParams.get('q') ?? '';
+  useEffect(() => {
+    if (urlQuery === search) return;
     setSearchParams(
       (params) => {
         const next = new URLSearchParams(params);
-        if (value) next.set('q', value);
+        if (search) next.set('q', search);
         else next.delete('q');
         return next;
       },
       { replace: true },
     );
+    // Only the box's text drives the address; the address is read once, when the page opens.
+  }, [search]);
+
+  function setSearch(value: string) {
+    setSearchText(value);
   }
 
   const openBoard = (board: BoardSummary) => navigate(`/boards/${board.id}`);
@@ -407,7 +418,7 @@ function SiteSection({
                       </td>
                       <td className="px-3 py-1 text-right tabular-nums">{board.circuitCount}</td>
                       <td className="px-3 py-1">
-                        <BoardProgress cellsFilled={board.cellsFilled} circuitCount={board.circuitCount} />
+                        <BoardProgress readingsDone={board.readingsDone} readingsRequired={board.readingsRequired} />
                       </td>
                     </tr>
                   );

@@ -1,4 +1,5 @@
 import { act, render } from '@testing-library/react';
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import userEvent from '@testing-library/user-event';
 import { useMemo, useState } from 'react';
 import type { BoardDetail, Circuit, CircuitFields } from '../../../../shared/schemas/boards.ts';
@@ -80,6 +81,8 @@ export interface ConsoleHarnessOptions {
   role?: Role | null;
   /** The completeness gate's reasons the console shows before locking. */
   lockReasons?: readonly string[] | null;
+  /** The signed-in person (their console layout is remembered under it). */
+  personId?: number | null;
 }
 
 /**
@@ -89,6 +92,8 @@ export interface ConsoleHarnessOptions {
 export function renderConsole(initial: BoardDetail, options: ConsoleHarnessOptions = {}) {
   const calls: SyncCall[] = [];
   const resolved: Array<{ editId: string; choice: string }> = [];
+  /** Circuits the console asked to insert: after which circuit, with which fields. */
+  const inserted: Array<{ afterId: number | null; fields: Partial<CircuitFields> }> = [];
   const remote: { update: (change: (detail: BoardDetail) => BoardDetail) => void } = { update: () => {} };
 
   function Harness() {
@@ -118,8 +123,14 @@ export function renderConsole(initial: BoardDetail, options: ConsoleHarnessOptio
         resolveConflict(editId, choice) {
           resolved.push({ editId, choice });
         },
-        insertCircuit: async () => {
-          throw new Error('not in this test');
+        insertCircuit: async (afterId, fields = {}) => {
+          const made = circuit(900 + inserted.length, fields.number ?? '?', {}, fields);
+          inserted.push({ afterId, fields });
+          setDetail((d) => {
+            const at = afterId === null ? 0 : d.circuits.findIndex((c) => c.id === afterId) + 1;
+            return { ...d, circuits: [...d.circuits.slice(0, at), made, ...d.circuits.slice(at)] };
+          });
+          return made;
         },
         removeCircuit: async () => {},
         lockBoard: async () => {},
@@ -127,15 +138,21 @@ export function renderConsole(initial: BoardDetail, options: ConsoleHarnessOptio
       }),
       [detail],
     );
-    return <BoardConsole sync={sync} detail={detail} findings={options.findings ?? []} role={options.role ?? 'tester'} lockReasons={options.lockReasons ?? null} />;
+    return <BoardConsole sync={sync} detail={detail} findings={options.findings ?? []} role={options.role ?? 'tester'} lockReasons={options.lockReasons ?? null} personId={options.personId ?? null} />;
   }
 
   const user = userEvent.setup();
-  const result = render(<Harness />);
+  // A fresh query client per test, retries off (panels beside the grid read the API).
+  const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+  const result = render(
+    <QueryClientProvider client={queryClient}>
+      <Harness />
+    </QueryClientProvider>,
+  );
   const grid = result.getByRole('grid');
   /** Applies a change as if it came from another typist through the changes feed. */
   const remoteUpdate = (change: (detail: BoardDetail) => BoardDetail) => act(() => remote.update(change));
-  return { ...result, user, calls, resolved, grid, remoteUpdate };
+  return { ...result, user, calls, resolved, inserted, grid, remoteUpdate };
 }
 
 /** The gridcell of a circuit (by its number) and column (by its header label). */

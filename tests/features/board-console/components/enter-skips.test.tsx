@@ -83,8 +83,9 @@ describe('Enter passes the cells a reading does not apply to', () => {
     expect(screen.getByRole('status')).toHaveTextContent('Tick: down to circuit 4 (skipped 2 circuits this reading does not apply to)');
     await user.keyboard('v');
     expect(cellWrites(calls)).toEqual(['31 rcdButton=✓', '34 rcdButton=✓']);
-    // No circuit has an AFDD: the next stop is the AFDD detail column, never passed.
-    expect(activeCell(grid)).toBe(cellOf(grid, '1', 'AFDD'));
+    // No circuit has an AFDD and a reading pass never enters a detail column (the AFDD yes/no):
+    // nothing further applies, so the cursor stays on the last tick.
+    expect(activeCell(grid)).toBe(cellOf(grid, '4', 'RCD btn'));
   });
 
   it('when the last R1+R2 is typed on a board with no long-lead R2, then Enter passes R2 and says so', async () => {

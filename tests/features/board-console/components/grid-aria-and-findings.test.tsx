@@ -205,6 +205,21 @@ describe('commands from the palette', () => {
     expect(within(dialog).getByRole('option', { name: /Lock the board/ })).not.toHaveAccessibleName(/not available/);
   });
 
+  it('when a reviewer chooses to lock, then it asks first, listing what still stands; "No" leaves the board open', async () => {
+    const findings = [
+      { code: 'zs-over-80-percent', severity: 'warning' as const, circuitId: 11, columns: ['zs'], message: 'Zs near the limit', limit: null, source: null },
+      { code: 'ir-below-2-megohm', severity: 'note' as const, circuitId: 12, columns: ['irLiveEarth'], message: 'IR low-ish', limit: null, source: null },
+    ];
+    const detail = board();
+    const { user } = renderConsole({ ...detail, findings }, { role: 'reviewer', lockReasons: [] });
+    await user.keyboard('{Control>}k{/Control}');
+    const dialog = await screen.findByRole('dialog', { name: 'Command palette' });
+    await user.keyboard('lock the board{Enter}');
+    expect(within(dialog).getByRole('option', { name: /Yes, lock it — still standing: 1 warning, 1 note/ })).toBeDefined();
+    await user.keyboard('{ArrowDown}{Enter}');
+    await waitFor(() => expect(screen.getByRole('status')).toHaveTextContent('left open'));
+  });
+
   it('when a limitation is marked with a reason, then LIM and the reason are written on the active cell', async () => {
     const { grid, user, calls } = renderConsole(board());
     await user.click(cellOf(grid, '3', 'Zs'));
@@ -217,7 +232,7 @@ describe('commands from the palette', () => {
     expect(cellOf(grid, '3', 'Zs')).toHaveAttribute('title', 'Limitation: No access: locked plant room');
   });
 
-  it('when a spur is linked, then its kind, ring, origin point and length are written', async () => {
+  it('when a spur is linked, then its kind, ring, origin point, length and fuse are written', async () => {
     const { grid, user, calls } = renderConsole(board());
     await user.click(cellOf(grid, '3', 'Zs'));
     await user.keyboard('{Control>}k{/Control}');
@@ -227,12 +242,15 @@ describe('commands from the palette', () => {
     await user.keyboard('socket 4{Enter}');
     await user.keyboard('7{Enter}');
     await user.keyboard('{Enter}');
+    // Fused or unfused: the first choice, unfused.
+    await user.keyboard('{Enter}');
     await waitFor(() =>
       expect(calls).toEqual([
         { kind: 'field', circuitId: 13, field: 'kind', value: 'spur', how: 'typed' },
         { kind: 'field', circuitId: 13, field: 'spurRingId', value: 12, how: undefined },
         { kind: 'field', circuitId: 13, field: 'spurOriginPoint', value: 'socket 4', how: undefined },
         { kind: 'field', circuitId: 13, field: 'spurLengthM', value: 7, how: undefined },
+        { kind: 'field', circuitId: 13, field: 'spurProtection', value: 'unfused', how: undefined },
       ]),
     );
   });
@@ -259,7 +277,7 @@ describe('commands from the palette', () => {
 });
 
 describe('the quick-entry line in the console', () => {
-  it('when a line is dictated, then its values are written as dictated, the cursor follows to the last circuit, and the undo key takes them back', async () => {
+  it('when a line is dictated, then its values are written as dictated, the cursor goes to the last cell written, and the undo key takes them back', async () => {
     const { grid, user, calls } = renderConsole(board());
     await user.click(cellOf(grid, '1', 'Zs'));
     await user.keyboard('{Control>}j{/Control}');
@@ -271,7 +289,7 @@ describe('the quick-entry line in the console', () => {
       { kind: 'cell', circuitId: 13, column: 'zs', text: '0.62', reason: null, how: 'dictated' },
       { kind: 'cell', circuitId: 13, column: 'irLiveEarth', text: '>200', reason: null, how: 'dictated' },
     ]);
-    expect(activeCell(grid)).toBe(cellOf(grid, '3', 'Zs'));
+    expect(activeCell(grid)).toBe(cellOf(grid, '3', 'L-E'));
     await user.keyboard('{Control>}z{/Control}');
     expect(calls.slice(3).map((c) => (c.kind === 'cell' ? `${c.circuitId} ${c.column}=${c.text}` : ''))).toEqual(['13 irLiveEarth=2', '13 zs=', '11 zs=0.44']);
     await user.keyboard('17 .5{Enter}');

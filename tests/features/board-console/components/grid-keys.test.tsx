@@ -50,12 +50,16 @@ describe('the grid keys', () => {
     expect(calls[0]).toMatchObject({ circuitId: 13, column: 'zs', text: '0.47' });
   });
 
-  it('when Enter is pressed on the last circuit, then the cursor goes to the top of the next column', async () => {
+  it('when Enter is pressed on the last circuit of a reading column, then the cursor goes to the top of the next reading column, never into a circuit detail', async () => {
     const { grid, user, calls } = renderConsole(threeCircuits());
     await user.click(cellOf(grid, '3', 'Zs'));
     await user.keyboard('0.8{Enter}');
     expect(calls).toHaveLength(1);
-    expect(where(grid)).toBe(`1 ${columnAfter('zs')}`);
+    // The column after Zs is "Max Zs given", a circuit detail: Enter passes it.
+    expect(columnAfter('zs')).toBe('Max Zs given');
+    // These circuits have no RCD or AFDD, so no reading column after Zs applies: Enter stays and says so.
+    expect(where(grid)).toBe('3 Zs');
+    expect(screen.getByRole('status')).toHaveTextContent('Enter: no reading further on needs a value');
   });
 
   it('when Shift+Enter is pressed while typing, then the value is written and the cursor goes up', async () => {

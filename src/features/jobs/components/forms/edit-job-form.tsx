@@ -2,7 +2,8 @@ import { useId, useState, type FormEvent } from 'react';
 import { updateJobBodySchema, type Job } from '../../../../../shared/schemas/sites.ts';
 import { firstFieldWithError, requestFormErrors, zodFormErrors, type FormErrors } from '../../../../lib/form-errors.ts';
 import { useUpdateJob } from '../../api/update-job.ts';
-import { describedBy, enterSubmits, FormField, FormFooter, inputClass } from './form-parts.tsx';
+import { describedBy, FormField, inputClass } from '../../../../components/form-field.tsx';
+import { enterSubmits, FormFooter } from './form-parts.tsx';
 
 const fields = ['reference', 'visitDate', 'visitEndDate'] as const;
 type Field = (typeof fields)[number];

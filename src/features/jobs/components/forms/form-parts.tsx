@@ -1,38 +1,4 @@
 import type React from 'react';
-import type { ReactNode } from 'react';
-
-export const inputClass =
-  'block w-full rounded border border-line-strong bg-surface px-2 py-1 aria-invalid:border-danger aria-invalid:bg-danger-soft disabled:opacity-60';
-
-/** A label, its control, and under it either a hint or the error in words. */
-export function FormField({ id, label, hint, error, children }: { id: string; label: string; hint?: string; error?: string; children: ReactNode }) {
-  return (
-    <div className="space-y-1">
-      <label htmlFor={id} className="block font-medium">
-        {label}
-      </label>
-      {children}
-      {hint && !error && (
-        <p id={`${id}-hint`} className="text-xs text-muted">
-          {hint}
-        </p>
-      )}
-      {error && (
-        <p id={`${id}-error`} className="text-danger">
-          {error}
-        </p>
-      )}
-    </div>
-  );
-}
-
-/** Props that tie a control to its hint or its error. */
-export function describedBy(id: string, error: string | undefined, hasHint = false) {
-  return {
-    'aria-invalid': error ? true : undefined,
-    'aria-describedby': error ? `${id}-error` : hasHint ? `${id}-hint` : undefined,
-  } as const;
-}
 
 /** The submit button and the form's own message (a problem no single field owns). */
 export function FormFooter({ pending, label, pendingLabel, formError }: { pending: boolean; label: string; pendingLabel: string; formError?: string }) {

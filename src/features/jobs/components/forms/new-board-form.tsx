@@ -3,7 +3,8 @@ import { boardLayouts, createBoardBodySchema } from '../../../../../shared/schem
 import { firstFieldWithError, numberOrText, requestFormErrors, zodFormErrors, type FormErrors } from '../../../../lib/form-errors.ts';
 import { useCreateBoard } from '../../api/create-board.ts';
 import type { SiteWithJobs } from '../../api/get-jobs.ts';
-import { describedBy, enterSubmits, FormField, FormFooter, inputClass } from './form-parts.tsx';
+import { describedBy, FormField, inputClass } from '../../../../components/form-field.tsx';
+import { enterSubmits, FormFooter } from './form-parts.tsx';
 
 const fields = ['jobId', 'reference', 'location', 'suppliedFrom', 'copyFromBoardId', 'layout', 'ways'] as const;
 type Field = (typeof fields)[number];

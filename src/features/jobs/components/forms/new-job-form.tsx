@@ -3,7 +3,8 @@ import { createJobBodySchema, jobKinds, type Job } from '../../../../../shared/s
 import { firstFieldWithError, requestFormErrors, zodFormErrors, type FormErrors } from '../../../../lib/form-errors.ts';
 import { useCreateJob } from '../../api/create-job.ts';
 import type { SiteWithJobs } from '../../api/get-jobs.ts';
-import { describedBy, enterSubmits, FormField, FormFooter, inputClass, todayText } from './form-parts.tsx';
+import { describedBy, FormField, inputClass } from '../../../../components/form-field.tsx';
+import { enterSubmits, FormFooter, todayText } from './form-parts.tsx';
 
 const fields = ['siteId', 'kind', 'reference', 'visitDate', 'visitEndDate', 'startFromJobId'] as const;
 type Field = (typeof fields)[number];

@@ -10,7 +10,8 @@ import {
 import { firstFieldWithError, numberOrText, requestFormErrors, zodFormErrors, type FormErrors } from '../../../../lib/form-errors.ts';
 import { useCreateSite } from '../../api/create-site.ts';
 import { useUpdateSite } from '../../api/update-site.ts';
-import { describedBy, enterSubmits, FormField, FormFooter, inputClass } from './form-parts.tsx';
+import { describedBy, FormField, inputClass } from '../../../../components/form-field.tsx';
+import { enterSubmits, FormFooter } from './form-parts.tsx';
 
 const fields = ['client', 'address', 'description', 'contactName', 'contactEmail', 'earthing', 'nominalVoltageV', 'zeOhm', 'pfcKa'] as const;
 type Field = (typeof fields)[number];
