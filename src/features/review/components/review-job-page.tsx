@@ -20,6 +20,7 @@ import { createReviewCommands, type ReviewContext, type ReviewSelection } from '
 import { FindingItem } from './finding-item.tsx';
 import { GateReasons } from './gate-reasons.tsx';
 import { JobRecordSummary } from './job-record-summary.tsx';
+import { RingSocketReadings } from './ring-socket-readings.tsx';
 import { UnlockBoardForm } from './unlock-board-form.tsx';
 
 const severityRank: Record<string, number> = { error: 0, warning: 1, note: 2 };
@@ -336,6 +337,7 @@ function ReviewJobView({ review, role }: { review: ReviewJob; role: Role | null 
                 ) : (
                   <p className="text-sm text-muted">No findings about values on this board.</p>
                 )}
+                <RingSocketReadings boardReference={b.board.reference} rings={b.rings ?? []} />
               </section>
             );
           })}
