@@ -140,6 +140,10 @@ export function mailRoutes(db: DB, sender: MailSender): Router {
     const company = await loadCompany(db);
     const user = currentUser(req);
     const id = await db.transaction().execute(async (trx) => {
+      // The photos chosen now go with this e-mail (and with its retries, unless unchosen since).
+      const photoIds = (
+        await trx.selectFrom('files').select('id').where('job_id', '=', job.id).where('kind', '=', 'photo').where('send_to_client', '=', 1).orderBy('id').execute()
+      ).map((f) => f.id);
       const row = await trx
         .insertInto('outgoing_mail')
         .values({
@@ -158,6 +162,7 @@ export function mailRoutes(db: DB, sender: MailSender): Router {
             company,
           }),
           created_by: user.id,
+          photo_file_ids: JSON.stringify(photoIds),
         })
         .returning('id')
         .executeTakeFirstOrThrow();
@@ -169,7 +174,7 @@ export function mailRoutes(db: DB, sender: MailSender): Router {
           field: null,
           action: 'mail-queued',
           old_text: null,
-          new_text: JSON.stringify({ mailId: row.id, to, revision: issue.revision }),
+          new_text: JSON.stringify({ mailId: row.id, to, revision: issue.revision, photoFileIds: photoIds }),
           reason: null,
           user_id: user.id,
           at: new Date().toISOString(),
