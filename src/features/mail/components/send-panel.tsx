@@ -107,7 +107,7 @@ function SendForm({ jobId, defaultTo, revision }: { jobId: number; defaultTo: st
   return (
     <form noValidate onSubmit={handleSubmit} aria-label="Send the issued document" className="space-y-2">
       <p>
-        Sends revision {revision} as a PDF attachment, with a short standard message and your own words if you add some.
+        Sends revision {revision} as a PDF attachment, with a short standard message and your own words if you add some. Photos of the notes go with it only if chosen under “Photos of the notes”.
       </p>
       <div className="space-y-1">
         <label htmlFor={toId} className="block font-medium">
