@@ -107,11 +107,19 @@ export function mailRoutes(db: DB, sender: MailSender): Router {
   router.get('/jobs/:jobId/mail', async (req, res) => {
     const job = await requireJob(db, idParam(req, 'jobId'));
     const issue = await latestIssue(db, job.id);
+    const chosen = await db
+      .selectFrom('files')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('job_id', '=', job.id)
+      .where('kind', '=', 'photo')
+      .where('send_to_client', '=', 1)
+      .executeTakeFirstOrThrow();
     res.json({
       mail: await mailRowsWithRevision(db, { jobId: job.id }),
       jobState: job.state,
       defaultTo: job.contact_email,
       latestIssue: issue ? { id: issue.id, revision: issue.revision, issuedAt: issue.issued_at } : null,
+      photosChosen: Number(chosen.n),
     });
   });
 

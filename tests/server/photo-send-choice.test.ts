@@ -160,6 +160,7 @@ describe('sending the issued document with photos', () => {
     const { pdfSha256 } = await issueJob();
     const reviewer = await t.signIn('reviewer');
     expect((await reviewer.put(`/api/photos/${second.id}/send-choice`).send({ sendToClient: true })).status).toBe(200);
+    expect((await reviewer.get(`/api/jobs/${t.ids.job}/mail`)).body.photosChosen).toBe(1);
     const sent = await sendAndWait(reviewer);
     expect(sent.state).toBe('sent');
     const attachments = receivedAttachments();
