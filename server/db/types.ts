@@ -183,6 +183,8 @@ export interface FileTable {
   board_id: number | null;
   uploaded_by: number | null;
   created_at: Generated<string>;
+  /** 1 when a photo is chosen to go with the document to the client (migration 0370); default 0. */
+  send_to_client: Generated<number>;
 }
 
 /** An error finding a reviewer accepted with a written reason. */
@@ -234,6 +236,8 @@ export interface OutgoingMailTable {
   created_by: number | null;
   created_at: Generated<string>;
   sent_at: string | null;
+  /** JSON array of the photo file ids chosen when the e-mail was queued (migration 0370); null before. */
+  photo_file_ids: string | null;
 }
 
 export interface AppSettingTable {

@@ -18,7 +18,8 @@ export interface MailSenderOptions {
  * queued one answers at once (202). Each row goes waiting → sending → sent, or failed with the
  * reason in `last_error`; a failed row stays and is sent again only when someone retries it.
  * The attachment is read from the stored issued PDF and checked against the SHA-256 recorded at
- * issue, so what leaves is exactly what was issued.
+ * issue, so what leaves is exactly what was issued; beside it go only the photos someone chose to
+ * send (`files.send_to_client`), never another.
  */
 export class MailSender {
   private readonly transport: Transporter | null;
@@ -125,6 +126,7 @@ export class MailSender {
     if (!issue) throw new Error('The issued document to attach was not found.');
     if (issue.sha256 !== issue.issued_sha256) throw new Error('The stored document does not match the SHA-256 recorded when it was issued; it was not sent.');
     const content = this.files.readVerified(issue);
+    const photos = await this.chosenPhotos(mail);
     const company = await loadCompany(this.db);
     const from = this.options.from ?? (company.email || 'boardwalk@localhost');
     const info = await this.transport.sendMail({
@@ -134,9 +136,34 @@ export class MailSender {
       to: mail.to_address,
       subject: mail.subject,
       text: mail.body,
-      attachments: [{ filename: attachmentName(issue.reference, issue.revision), content, contentType: issue.mime }],
+      attachments: [{ filename: attachmentName(issue.reference, issue.revision), content, contentType: issue.mime }, ...photos],
     });
     return typeof info.messageId === 'string' ? info.messageId : null;
+  }
+
+  /**
+   * The photos to attach beside the PDF: those chosen when the e-mail was queued that are still
+   * chosen now and still photos of this job — never one nobody chose. Each is checked against its
+   * stored SHA-256; one changed on disk fails the send rather than leave without saying.
+   */
+  private async chosenPhotos(mail: OutgoingMailRow): Promise<{ filename: string; content: Buffer; contentType: string }[]> {
+    const ids = parsePhotoIds(mail.photo_file_ids);
+    if (ids.length === 0) return [];
+    const rows = await this.db
+      .selectFrom('files')
+      .innerJoin('boards', 'boards.id', 'files.board_id')
+      .select(['files.id', 'files.path', 'files.sha256', 'files.mime', 'boards.reference'])
+      .where('files.id', 'in', ids)
+      .where('files.kind', '=', 'photo')
+      .where('files.job_id', '=', mail.job_id)
+      .where('files.send_to_client', '=', 1)
+      .orderBy('files.id')
+      .execute();
+    return rows.map((row, i) => ({
+      filename: photoAttachmentName(row.reference, i + 1, row.mime),
+      content: this.files.readVerified(row),
+      contentType: row.mime,
+    }));
   }
 
   private async appendHistory(jobId: number, action: string, value: unknown): Promise<void> {
@@ -150,6 +177,22 @@ export class MailSender {
 /** The attached PDF's name: the reference and revision, with nothing a mail program might choke on. */
 export function attachmentName(reference: string, revision: number): string {
   return `${reference.replace(/[^\w.-]+/g, '-')}-revision-${revision}.pdf`;
+}
+
+/** A photo's attached name: its board and its place among the photos sent, e.g. `board-DB1-photo-2.jpg`. */
+export function photoAttachmentName(boardReference: string, n: number, mime: string): string {
+  const extension = mime === 'image/png' ? 'png' : 'jpg';
+  return `board-${boardReference.replace(/[^\w.-]+/g, '-')}-photo-${n}.${extension}`;
+}
+
+function parsePhotoIds(text: string | null): number[] {
+  if (!text) return [];
+  try {
+    const value: unknown = JSON.parse(text);
+    return Array.isArray(value) ? value.filter((v): v is number => Number.isSafeInteger(v)) : [];
+  } catch {
+    return [];
+  }
 }
 
 /** A send error in words a person can act on. */

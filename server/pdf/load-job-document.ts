@@ -1,6 +1,7 @@
 import type { Board, Circuit } from '../../shared/schemas/boards.ts';
 import type { Company } from '../../shared/schemas/company.ts';
 import { nextInspectionDate, overallAssessment, type JobRecord, type OverallAssessment } from '../../shared/schemas/job-record.ts';
+import type { RingReadings } from '../../shared/schemas/ring-sockets.ts';
 import type { Job, Site } from '../../shared/schemas/sites.ts';
 import { loadBoard, loadCircuits } from '../db/boards.ts';
 import { loadCompany } from '../db/company.ts';
@@ -8,6 +9,7 @@ import type { DB } from '../db/database.ts';
 import { loadJobRecord } from '../db/job-sections.ts';
 import { toJob, toSite } from '../db/mappers.ts';
 import type { SignatureRow } from '../db/types.ts';
+import { loadRingReadings } from '../db/ring-sockets.ts';
 import { userNames } from '../db/users.ts';
 import { readStoredFile } from './stored-files.ts';
 
@@ -40,7 +42,8 @@ export interface JobDocument {
   job: Job;
   site: Site;
   record: JobRecord;
-  boards: { board: Board; circuits: Circuit[] }[];
+  /** Each board with its circuits and its rings' socket readings (rings that have any). */
+  boards: { board: Board; circuits: Circuit[]; rings: RingReadings[] }[];
   assessment: { assessment: OverallAssessment; reason: string };
   /** The recommended date of the next inspection, or null when no interval is given. */
   nextInspection: string | null;
@@ -65,7 +68,9 @@ export async function loadJobDocument(db: DB, jobId: number, dataDir: string): P
   const boards: JobDocument['boards'] = [];
   for (const { id } of boardRows) {
     const board = await loadBoard(db, id);
-    if (board) boards.push({ board, circuits: await loadCircuits(db, id) });
+    if (!board) continue;
+    const circuits = await loadCircuits(db, id);
+    boards.push({ board, circuits, rings: await loadRingReadings(db, circuits) });
   }
   const boardReference = new Map(boards.map((b) => [b.board.id, b.board.reference]));
 

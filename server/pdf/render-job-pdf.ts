@@ -4,6 +4,7 @@ import { columnByKey, columns, readingKeys, type ColumnDef, type ColumnKey } fro
 import { defaultCompany } from '../../shared/schemas/company.ts';
 import { inspectionAreas } from '../../shared/schemas/inspection-items.ts';
 import { blankSection, jobSectionKeys, observationCodes, usualIntervalMonths, type Observation } from '../../shared/schemas/job-record.ts';
+import type { RingReadings } from '../../shared/schemas/ring-sockets.ts';
 import { parsedFonts } from './fonts.ts';
 import type { DocumentImage, DocumentSignature, JobDocument } from './load-job-document.ts';
 import {
@@ -91,7 +92,7 @@ export function renderJobPdf(document: JobDocument, stamp: IssueStamp): Promise<
   summary(w, document);
   acceptances(w, document);
   declaration(w, document);
-  for (const { board, circuits } of document.boards) boardSchedule(w, board, circuits);
+  for (const { board, circuits, rings } of document.boards) boardSchedule(w, board, circuits, rings);
   footers(doc, `${reference} · revision ${stamp.revision} · ${title}`);
   doc.end();
   return done;
@@ -732,7 +733,7 @@ function detailText(circuit: Circuit, key: ColumnKey): string {
   return value === null || value === undefined ? '' : String(value);
 }
 
-function boardSchedule(w: Writer, board: Board, circuits: Circuit[]) {
+function boardSchedule(w: Writer, board: Board, circuits: Circuit[], rings: readonly RingReadings[]) {
   const { doc } = w;
   w.newPage('landscape');
   w.font('bold', 14, accent).text(`Schedule of test results: board ${board.reference}`, w.left, doc.y, { width: w.width });
@@ -819,12 +820,50 @@ function boardSchedule(w: Writer, board: Board, circuits: Circuit[]) {
     w.subheading('Readings not taken (LIM) and why');
     w.paragraph(limits.join('; ') + '.', 8);
   }
+  ringSockets(w, rings, continued);
   w.paragraph(
     'Readings are printed exactly as recorded: ">200" is beyond the instrument’s range, N/A not applicable, LIM not taken because of a limitation, ✓ confirmed, ✗ not confirmed. Units are under each heading.',
     7.5,
     muted,
   );
   w.paragraph(safetyCaution, 7.5, muted);
+}
+
+/**
+ * Each ring's socket-by-socket readings (steps 2 and 3 of the ring test: L-N and L-cpc at each
+ * socket with the ends cross-connected) and the checker's diagnosis in words.
+ */
+function ringSockets(w: Writer, rings: readonly RingReadings[], continued: string) {
+  if (rings.length === 0) return;
+  const cols = fitColumns<TableColumn & { flex?: number }>(
+    [
+      { label: 'Socket', width: 44, align: 'center' },
+      { label: 'Label', width: 0, flex: 1, align: 'left' },
+      { label: 'Position along the ring', unit: '0 to 1', width: 100, align: 'center' },
+      { label: 'L-N', unit: 'Ω', width: 70, align: 'center' },
+      { label: 'L-cpc', unit: 'Ω', width: 70, align: 'center' },
+      { label: 'The diagnosis points here', width: 0, flex: 1, align: 'left' },
+    ],
+    w.width,
+  );
+  for (const ring of rings) {
+    w.ensure(90);
+    w.subheading(`Ring ${ring.circuitNumber}${ring.description ? ` (${ring.description})` : ''}: readings at each socket`);
+    const suspects = new Set(ring.diagnosis?.suspects ?? []);
+    table(
+      w,
+      cols,
+      ring.sockets.map((s, i) => [String(i + 1), s.label, s.position === null ? '' : String(s.position), s.lineNeutral, s.lineCpc, suspects.has(i) ? 'yes' : '']),
+      { size: 8, continued },
+    );
+    w.paragraph(
+      ring.diagnosis
+        ? `Diagnosis: ${ring.diagnosis.verdictText}. ${ring.diagnosis.message}`
+        : 'No diagnosis: the ring’s end-to-end readings r1 and r2 are not both recorded.',
+      8,
+    );
+  }
+  w.paragraph('The diagnosis compares the L-cpc readings with what a sound ring reads (common practice); it shows where to look, not a certainty.', 7.5, muted);
 }
 
 function columnGroupLabel(def: ColumnDef): string {
@@ -880,6 +919,7 @@ export async function warmUpPdfRenderer(): Promise<void> {
     boards: [{
       board: { id: 1, jobId: 1, reference: 'W1', location: '', suppliedFrom: '', phases: 3, zdbOhm: 0.2, ipfKa: 1.5, polarityConfirmed: true, phaseSequenceConfirmed: true, instruments: '', state: 'open', lockedBy: null, lockedAt: null, version: 1 },
       circuits: Array.from({ length: 12 }, (_, i) => circuit(i + 1)),
+      rings: [],
     }],
     assessment: { assessment: 'not yet known', reason: '' },
     nextInspection: null,

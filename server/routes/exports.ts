@@ -9,6 +9,7 @@ import { toJob, toSite } from '../db/mappers.ts';
 import { notFound } from '../http-error.ts';
 import { loadJobRecord } from '../db/job-sections.ts';
 import { ringSocketsSchema } from '../../shared/schemas/ring-sockets.ts';
+import { loadRingReadings } from '../db/ring-sockets.ts';
 import { idParam } from './params.ts';
 
 /** A column's heading in the CSV: the trade's label with its unit, e.g. "Zs (Ω)". */
@@ -87,7 +88,9 @@ export function exportRoutes(db: DB): Router {
     const boards: JobExport['boards'] = [];
     for (const { id } of boardIds) {
       const board = await loadBoard(db, id);
-      if (board) boards.push({ board, circuits: await loadCircuits(db, id) });
+      if (!board) continue;
+      const circuits = await loadCircuits(db, id);
+      boards.push({ board, circuits, ringSockets: await loadRingReadings(db, circuits) });
     }
     // Built in the schema's shape (tests parse it back with `jobExportSchema`).
     const body: JobExport = {

@@ -107,11 +107,19 @@ export function mailRoutes(db: DB, sender: MailSender): Router {
   router.get('/jobs/:jobId/mail', async (req, res) => {
     const job = await requireJob(db, idParam(req, 'jobId'));
     const issue = await latestIssue(db, job.id);
+    const chosen = await db
+      .selectFrom('files')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('job_id', '=', job.id)
+      .where('kind', '=', 'photo')
+      .where('send_to_client', '=', 1)
+      .executeTakeFirstOrThrow();
     res.json({
       mail: await mailRowsWithRevision(db, { jobId: job.id }),
       jobState: job.state,
       defaultTo: job.contact_email,
       latestIssue: issue ? { id: issue.id, revision: issue.revision, issuedAt: issue.issued_at } : null,
+      photosChosen: Number(chosen.n),
     });
   });
 
@@ -140,6 +148,10 @@ export function mailRoutes(db: DB, sender: MailSender): Router {
     const company = await loadCompany(db);
     const user = currentUser(req);
     const id = await db.transaction().execute(async (trx) => {
+      // The photos chosen now go with this e-mail (and with its retries, unless unchosen since).
+      const photoIds = (
+        await trx.selectFrom('files').select('id').where('job_id', '=', job.id).where('kind', '=', 'photo').where('send_to_client', '=', 1).orderBy('id').execute()
+      ).map((f) => f.id);
       const row = await trx
         .insertInto('outgoing_mail')
         .values({
@@ -158,6 +170,7 @@ export function mailRoutes(db: DB, sender: MailSender): Router {
             company,
           }),
           created_by: user.id,
+          photo_file_ids: JSON.stringify(photoIds),
         })
         .returning('id')
         .executeTakeFirstOrThrow();
@@ -169,7 +182,7 @@ export function mailRoutes(db: DB, sender: MailSender): Router {
           field: null,
           action: 'mail-queued',
           old_text: null,
-          new_text: JSON.stringify({ mailId: row.id, to, revision: issue.revision }),
+          new_text: JSON.stringify({ mailId: row.id, to, revision: issue.revision, photoFileIds: photoIds }),
           reason: null,
           user_id: user.id,
           at: new Date().toISOString(),

@@ -16,6 +16,7 @@ import {
 import type { DB } from '../db/database.ts';
 import { toBoard, toJob, toSite } from '../db/mappers.ts';
 import { appendJobHistory, findJobRow } from '../db/jobs.ts';
+import { loadRingReadings } from '../db/ring-sockets.ts';
 import { latestStateChange, latestSubmissions, listAcceptanceRows, setJobState, toAcceptance } from '../db/review.ts';
 import type { JobRow } from '../db/types.ts';
 import { userNames } from '../db/users.ts';
@@ -244,15 +245,17 @@ export function reviewRoutes(db: DB): Router {
     const submission = (await latestSubmissions(db, [job.id])).get(job.id);
     const boardRows = await db.selectFrom('boards').selectAll().where('job_id', '=', job.id).execute();
     const boardRowById = new Map(boardRows.map((b) => [b.id, b]));
-    const boards = review.boards.map((b) => {
+    const boards = [];
+    for (const b of review.boards) {
       const acceptances = b.acceptances.map((a) => toAcceptance(a, names));
       const numbers = new Map(b.context.circuits.map((c) => [c.id, c.number]));
       const findings = toReviewFindings(b.context.board.id, b.findings, acceptances, numbers);
       const counts = reviewCounts(b.findings, new Set(b.acceptances.map((a) => a.finding_key)), (f) => gateFindingKey(b.context.board.id, f));
       const missingByColumn = missingReadingCounts(b.findings).byColumn;
       const row = boardRowById.get(b.context.board.id)!;
-      return { board: toBoard(row, names), circuitCount: b.context.circuits.length, findings, counts, missingByColumn, gate: b.gate };
-    });
+      const rings = await loadRingReadings(db, b.context.circuits);
+      boards.push({ board: toBoard(row, names), circuitCount: b.context.circuits.length, findings, counts, missingByColumn, gate: b.gate, rings });
+    }
     res.json({
       job: toJob(job),
       site: toSite(site),

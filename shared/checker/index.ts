@@ -7,7 +7,7 @@
  * - `parseCell(column, text)`: the cell grammar (numbers, >N, N/A, LIM, tick/cross).
  * - `maxZs(query)`: maximum Zs for a device (BS 7671:2018 Tables 41.2–41.4).
  * - `checkBoard(input)`: every finding on a board; `createBoardChecker()` for cheap re-checks.
- * - `ringProfile(input)`: a ring's socket-by-socket diagnosis.
+ * - `ringProfile(input)`: a ring's socket-by-socket diagnosis; `diagnoseRingSockets` from cells as typed.
  * - `checkJob(input)`: findings about a job's record and what ties it to its boards.
  * - calculators: `expectedRadialR1PlusR2`, `maxCableLength`, `expectedRingReading`,
  *   `expectedSpurR1PlusR2`, and the ring network formulas (`ringReadingAt`,
@@ -95,6 +95,16 @@ export {
   type RingProfileInput,
   type RingProfile,
 } from './ring.ts';
+
+export {
+  /** A ring's diagnosis from its r1/rn/r2 cells and its socket readings as typed. */
+  diagnoseRingSockets,
+  /** A socket reading as typed, in ohms (null when blank or not a number). */
+  socketOhms,
+  /** Each ring verdict in a few plain words. */
+  ringVerdictText,
+  type RingEndCells,
+} from './ring-sockets.ts';
 
 export {
   /** Expected R1+R2 of a radial from its length, conductor sizes and a temperature factor. */

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { boardSchema, circuitSchema } from './boards.ts';
 import { jobSectionKeys, jobSectionStateSchema } from './job-record.ts';
+import { ringReadingsSchema } from './ring-sockets.ts';
 import { jobSchema, siteSchema } from './sites.ts';
 
 /**
@@ -43,7 +44,7 @@ export const reopenJobResponseSchema = z.object({ job: jobSchema });
 /**
  * `GET /api/jobs/:jobId/export.json`: the whole job in the API's own shapes, for a user's own
  * records: the job, its site, every section of its record, and every board with its circuits
- * (details and reading cells as typed).
+ * (details and reading cells as typed, and its rings' socket readings).
  */
 export const jobExportSchema = z.object({
   format: z.literal('boardwalk-job'),
@@ -57,6 +58,16 @@ export const jobExportSchema = z.object({
       typeof jobSectionStateSchema
     >,
   ),
-  boards: z.array(z.object({ board: boardSchema, circuits: z.array(circuitSchema) })),
+  boards: z.array(
+    z.object({
+      board: boardSchema,
+      circuits: z.array(circuitSchema),
+      /**
+       * The rings' socket-by-socket readings with the checker's diagnosis, for rings that have any.
+       * Optional: exports written before it was added parse as they are.
+       */
+      ringSockets: z.array(ringReadingsSchema).optional(),
+    }),
+  ),
 });
 export type JobExport = z.infer<typeof jobExportSchema>;

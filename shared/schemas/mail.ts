@@ -46,6 +46,8 @@ export const jobMailResponseSchema = z.object({
   defaultTo: z.string(),
   /** The newest issued revision, or null when nothing is issued. */
   latestIssue: z.object({ id: z.number().int(), revision: z.number().int(), issuedAt: z.string() }).nullable(),
+  /** How many of the job's photos of the notes are chosen to go with the next e-mail (none unless chosen). */
+  photosChosen: z.number().int(),
 });
 export type JobMail = z.infer<typeof jobMailResponseSchema>;
 

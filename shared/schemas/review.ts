@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { boardSchema } from './boards.ts';
 import { findingSchema, type Finding } from './findings.ts';
+import { ringReadingsSchema } from './ring-sockets.ts';
 import { jobSchema, siteSchema } from './sites.ts';
 
 /**
@@ -152,6 +153,8 @@ export const reviewJobResponseSchema = z.object({
       counts: reviewCountsSchema,
       missingByColumn: z.record(z.string(), z.number().int()),
       gate: boardGateSchema,
+      /** The board's rings with socket-by-socket readings, and the checker's diagnosis (optional: older servers). */
+      rings: z.array(ringReadingsSchema).optional(),
     }),
   ),
   jobFindings: z.array(reviewFindingSchema),

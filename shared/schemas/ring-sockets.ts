@@ -19,3 +19,25 @@ export const ringSocketsResponseSchema = z.object({ sockets: ringSocketsSchema, 
 
 /** `PUT` the same path: every socket at once, with the version the typist saw. */
 export const writeRingSocketsBodySchema = z.object({ version: z.number().int().min(0), sockets: ringSocketsSchema });
+
+/**
+ * A ring's socket readings as shown to the reviewer and printed or exported: the circuit, its
+ * sockets as typed, and the checker's diagnosis in words (null when r1 or r2 is not known, so no
+ * judgement can be made). `suspects` are the zero-based sockets the diagnosis points at.
+ */
+export const ringReadingsSchema = z.object({
+  circuitId: z.number().int(),
+  circuitNumber: z.string(),
+  description: z.string(),
+  sockets: ringSocketsSchema,
+  diagnosis: z
+    .object({
+      verdict: z.string(),
+      /** The verdict in a few plain words, e.g. "an interconnection (bridge) across the ring". */
+      verdictText: z.string(),
+      message: z.string(),
+      suspects: z.array(z.number().int()),
+    })
+    .nullable(),
+});
+export type RingReadings = z.infer<typeof ringReadingsSchema>;

@@ -8,6 +8,7 @@ import { JobRecordPage } from '../features/job-record/components/job-record-page
 import { SendPanel } from '../features/mail/components/send-panel.tsx';
 import { SigningPanel } from '../features/signing/components/signing-panel.tsx';
 import type { JobScreenAction } from '../features/job-record/commands.ts';
+import { JobPhotosPanel } from '../features/photos-on-job/components/job-photos-panel.tsx';
 import { IssuePanel } from '../features/issue/components/issue-panel.tsx';
 import { JobStatePanel } from '../features/review/components/job-state-panel.tsx';
 import type { JobDetail } from '../../shared/schemas/jobs.ts';
@@ -15,7 +16,7 @@ import type { JobDetail } from '../../shared/schemas/jobs.ts';
 /**
  * The job screen as the app composes it: the job record (src/features/job-record) with the forms
  * of the jobs feature as commands (new board, edit the site, edit the job), and the panels other
- * features add (review, signing, issue, mail) — place them in `panels`.
+ * features add (review, signing, issue, mail, photos of the notes) — place them in `panels`.
  */
 export function JobRoute() {
   return <JobRecordPage actions={jobActions} panels={<JobPanels />} />;
@@ -31,6 +32,8 @@ function JobPanels() {
       <SigningPanel jobId={jobId} person={{ role: me.role, name: me.name }} />
       <IssuePanel jobId={jobId} role={me.role} />
       <SendPanel jobId={jobId} personRole={me.role} />
+      {/* Beside sending: which photos go with the document is chosen here. */}
+      <JobPhotosPanel jobId={jobId} role={me.role} />
       {/* Last: its gate list arrives after the others and changes length as the record is
           filled, so above them it would move the signature box under a moving pen. */}
       <JobStatePanel jobId={jobId} role={me.role} />

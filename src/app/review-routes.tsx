@@ -1,5 +1,6 @@
 import { useParams } from 'react-router-dom';
 import { useMe } from '../features/auth/api/get-me.ts';
+import { JobPhotosPanel } from '../features/photos-on-job/components/job-photos-panel.tsx';
 import { ReviewJobPage } from '../features/review/components/review-job-page.tsx';
 import { ReviewQueuePage } from '../features/review/components/review-queue-page.tsx';
 import { RequireRole } from './require-role.tsx';
@@ -15,7 +16,7 @@ export function ReviewQueueRoute() {
   );
 }
 
-/** `/review/:jobId`: one job under review, with the signed-in person's role. */
+/** `/review/:jobId`: one job under review, with the signed-in person's role and the job's photos. */
 export function ReviewJobRoute() {
   const { jobId: param } = useParams();
   const jobId = Number(param);
@@ -29,7 +30,12 @@ export function ReviewJobRoute() {
   }
   return (
     <RequireRole roles={['reviewer', 'admin']} refusal={refusal}>
-      <ReviewJobPage key={jobId} jobId={jobId} role={me.data?.role ?? null} />
+      <ReviewJobPage
+        key={jobId}
+        jobId={jobId}
+        role={me.data?.role ?? null}
+        recordPanels={<JobPhotosPanel jobId={jobId} role={me.data?.role ?? null} />}
+      />
     </RequireRole>
   );
 }

@@ -1,5 +1,8 @@
 import Papa from 'papaparse';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { jobExportSchema } from '../../shared/schemas/issues.ts';
+import { reviewJobResponseSchema } from '../../shared/schemas/review.ts';
+import { writeReadings } from '../helpers/issue-fixture.ts';
 import { createTestApp, type TestApp } from '../helpers/test-app.ts';
 
 let t: TestApp;
@@ -70,5 +73,52 @@ describe('ring sockets in the CSV export', () => {
       [ringNumber, '1', 'hall', '', '0.26', '0.33'],
       [ringNumber, '2', 'lounge', '', '0.27', '0.34'],
     ]);
+  });
+});
+
+describe('ring sockets in the job JSON export and the review response', () => {
+  // The same invented ring with its end-to-end readings: r1 0.52, rn 0.52, r2 0.85 Ω.
+  const ends = { ringR1: '0.52', ringRn: '0.52', ringR2: '0.85' };
+
+  it('when a ring has socket readings, then the job export carries them with the diagnosis, parsed back with the schema', async () => {
+    const agent = await t.signIn('tester');
+    await writeReadings(t.db, ring, ends, t.ids.tester);
+    await agent.put(url(ring)).send({ version: 0, sockets });
+    const res = await agent.get(`/api/jobs/${t.ids.job}/export.json`);
+    expect(res.status).toBe(200);
+    const exported = jobExportSchema.parse(JSON.parse(res.text));
+    const board = exported.boards.find((b) => b.board.id === t.ids.board)!;
+    expect(board.ringSockets).toHaveLength(1);
+    const readings = board.ringSockets![0]!;
+    expect(readings).toMatchObject({ circuitId: ring, sockets });
+    // A sound ring reads between r1·r2/(r1+r2) = 0.32 Ω and (r1+r2)/4 = 0.34 Ω at any socket (two
+    // halves in parallel, common practice): 0.33 and 0.34 are consistent.
+    expect((0.52 * 0.85) / (0.52 + 0.85)).toBeCloseTo(0.3226, 3);
+    expect((0.52 + 0.85) / 4).toBeCloseTo(0.3425, 4);
+    expect(readings.diagnosis).toMatchObject({ verdict: 'consistent', verdictText: 'consistent with a sound ring', suspects: [] });
+  });
+
+  it('when r1 or r2 is not recorded, then the readings are exported without a diagnosis; an export without rings still parses', async () => {
+    const agent = await t.signIn('tester');
+    await agent.put(url(ring)).send({ version: 0, sockets });
+    const exported = jobExportSchema.parse(JSON.parse((await agent.get(`/api/jobs/${t.ids.job}/export.json`)).text));
+    expect(exported.boards[0]!.ringSockets![0]).toMatchObject({ sockets, diagnosis: null });
+    // Compatible extension: a file written before socket readings were exported parses as it is.
+    const older = { ...exported, boards: exported.boards.map(({ board, circuits }) => ({ board, circuits })) };
+    expect(jobExportSchema.safeParse(older).success).toBe(true);
+  });
+
+  it('when the reviewer opens the job, then the board carries its rings’ socket readings and diagnosis', async () => {
+    const tester = await t.signIn('tester');
+    await writeReadings(t.db, ring, ends, t.ids.tester);
+    await tester.put(url(ring)).send({ version: 0, sockets: [...sockets, { label: 'study', position: null, lineNeutral: '0.27', lineCpc: '0.52' }] });
+    const reviewer = await t.signIn('reviewer');
+    const res = await reviewer.get(`/api/review/jobs/${t.ids.job}`);
+    expect(res.status).toBe(200);
+    const review = reviewJobResponseSchema.parse(res.body);
+    const rings = review.boards.find((b) => b.board.id === t.ids.board)!.rings!;
+    expect(rings.map((r) => r.circuitId)).toEqual([ring]);
+    // 0.52 Ω is far above the most a sound ring can read, (r1+r2)/4 = 0.34 Ω (common practice).
+    expect(rings[0]!.diagnosis).toMatchObject({ verdict: 'high-point', suspects: [2] });
   });
 });

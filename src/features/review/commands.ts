@@ -2,7 +2,8 @@
  * The review screen's commands: one list that the palette, the key bindings and the keys overlay
  * are built from (src/lib/commands). Single keys (j, k, a, l, b, o) act on the selected finding or
  * its board and are ignored while typing in a field; approving needs Alt+Shift+A so a stray key
- * never approves a job.
+ * never approves a job. Commands that change data (accept, withdraw, lock, send back, approve) are
+ * marked `changesData`: chosen in the palette by a loose match, they ask before they run.
  */
 import type { Role } from '../../../shared/schemas/common.ts';
 import type { ReviewFinding, ReviewJob } from '../../../shared/schemas/review.ts';
@@ -71,6 +72,7 @@ export function createReviewCommands(): ReviewCommand[] {
       id: 'review.accept',
       label: 'Accept the finding with a reason',
       group: 'Findings',
+      changesData: true,
       keywords: ['accept', 'observation', 'reason', 'error'],
       shortcut: 'a',
       when: (ctx) => {
@@ -88,6 +90,7 @@ export function createReviewCommands(): ReviewCommand[] {
       id: 'review.withdraw',
       label: 'Withdraw the acceptance of the finding',
       group: 'Findings',
+      changesData: true,
       keywords: ['undo', 'withdraw', 'reopen finding'],
       when: (ctx) => {
         if (!isReviewer(ctx)) return 'Only a reviewer or an admin withdraws an acceptance';
@@ -104,6 +107,7 @@ export function createReviewCommands(): ReviewCommand[] {
       id: 'review.lock-board',
       label: 'Lock the board of the finding',
       group: 'Boards',
+      changesData: true,
       keywords: ['lock', 'freeze', 'board'],
       shortcut: 'l',
       when: (ctx) => {
@@ -138,6 +142,7 @@ export function createReviewCommands(): ReviewCommand[] {
       id: 'review.send-back',
       label: 'Send the job back with a reason',
       group: 'Job',
+      changesData: true,
       keywords: ['return', 'reject', 'send back', 'tester'],
       shortcut: 'b',
       when: (ctx) => {
@@ -153,6 +158,7 @@ export function createReviewCommands(): ReviewCommand[] {
       id: 'review.approve',
       label: 'Approve the job',
       group: 'Job',
+      changesData: true,
       keywords: ['approve', 'pass', 'sign off'],
       shortcut: 'Alt+Shift+KeyA',
       when: (ctx) => {

@@ -8,6 +8,7 @@ const issued: Omit<JobMail, 'mail'> = {
   jobState: 'issued',
   defaultTo: 'priya@client.example',
   latestIssue: { id: 3, revision: 2, issuedAt: '2026-11-30T10:00:00.000Z' },
+  photosChosen: 0,
 };
 
 const outgoing = (changes: Partial<OutgoingMail>): OutgoingMail => ({
@@ -31,6 +32,12 @@ afterEach(() => {
 });
 
 describe('send panel', () => {
+  it('when two photos of the notes are chosen, then the form says they go with the document', async () => {
+    stubApi({ 'GET /api/jobs/5/mail': () => json(200, { ...issued, photosChosen: 2, mail: [] }) });
+    renderWithProviders(<SendPanel jobId={5} personRole="reviewer" />);
+    expect(await screen.findByText(/The 2 photos of the notes chosen under “Photos of the notes” go with it\./)).toBeInTheDocument();
+  });
+
   it('when the job is not issued yet, then it says sending opens once it is', async () => {
     stubApi({ 'GET /api/jobs/5/mail': () => json(200, { ...issued, jobState: 'approved', latestIssue: null, mail: [] }) });
     renderWithProviders(<SendPanel jobId={5} personRole="reviewer" />);
@@ -54,6 +61,7 @@ describe('send panel', () => {
     const { user } = renderWithProviders(<SendPanel jobId={5} personRole="reviewer" />);
     expect(await screen.findByLabelText('To')).toHaveValue('priya@client.example');
     expect(screen.getByText('Nothing has been sent for this job yet.')).toBeInTheDocument();
+    expect(screen.getByText(/No photo of the notes goes with it/)).toBeInTheDocument();
 
     await user.type(screen.getByLabelText('Your message (optional)'), 'Observation 2 needs attention this month.{Control>}{Enter}{/Control}');
 

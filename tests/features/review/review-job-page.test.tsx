@@ -1,5 +1,6 @@
 import { screen, waitFor, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { createReviewCommands } from '../../../src/features/review/commands.ts';
 import { ReviewJobPage } from '../../../src/features/review/components/review-job-page.tsx';
 import { json, renderWithProviders, stubApi } from '../../helpers/render.tsx';
 import { reviewJob, zsError } from './review-fixture.ts';
@@ -127,6 +128,37 @@ describe('review screen: one job', () => {
     await second.user.keyboard('{Alt>}{Shift>}A{/Shift}{/Alt}');
     await waitFor(() => expect(calls2.filter((c) => c.method === 'POST').map((c) => c.path)).toEqual(['/api/jobs/9/approve']));
     expect(await screen.findByRole('status')).toHaveTextContent('Job KV-EICR-0042 approved.');
+  });
+
+  it('when the palette finds "Approve the job" only by a loose match, then it asks first: Esc sends nothing, "Yes, go on" approves', async () => {
+    const passing = reviewJob();
+    passing.gate = { ...passing.gate, canApprove: true, reasons: [] };
+    passing.boards[0]!.board = { ...passing.boards[0]!.board, state: 'locked' };
+    const calls = stubApi({
+      'GET /api/review/jobs/9': () => json(200, passing),
+      'POST /api/jobs/9/approve': () => json(200, { job: { ...passing.job, state: 'approved' } }),
+    });
+    const { user } = renderPage();
+    await screen.findByRole('region', { name: 'Board CU1' });
+    await user.keyboard('{Control>}k{/Control}');
+    const dialog = await screen.findByRole('dialog');
+    await user.keyboard('aprv');
+    expect(within(dialog).getAllByRole('option')[0]).toHaveAttribute('data-match', 'fuzzy');
+    await user.keyboard('{Enter}');
+    expect(within(dialog).getByText(/only loosely matches this command/)).toBeInTheDocument();
+    await user.keyboard('{Escape}');
+    expect(calls.filter((c) => c.method === 'POST')).toEqual([]);
+    await user.keyboard('{Enter}');
+    expect(within(dialog).getByRole('button', { name: /Yes, go on/ })).toHaveFocus();
+    await user.keyboard('{Enter}');
+    await waitFor(() => expect(calls.filter((c) => c.method === 'POST').map((c) => c.path)).toEqual(['/api/jobs/9/approve']));
+  });
+
+  it('when the review commands are listed, then every one that changes data is marked so, and moving about is not', () => {
+    const marked = createReviewCommands()
+      .filter((c) => c.changesData)
+      .map((c) => c.id);
+    expect(marked).toEqual(['review.accept', 'review.withdraw', 'review.lock-board', 'review.send-back', 'review.approve']);
   });
 
   it('when a board is locked, then the reviewer can send it back with a reason (unlock); a short reason is refused at the field', async () => {

@@ -33,6 +33,15 @@ describe('the issued PDF of an EICR', () => {
   let pdf: Buffer;
   let pages: { text: string; num: number }[];
   let text: string;
+  let ringId = 0;
+  // Invented socket readings of that ring (r1 0.52, rn 0.52, r2 0.86 Ω): L-N near (r1+rn)/4 = 0.26 Ω
+  // and L-cpc near (r1+r2)/4 = 0.345 Ω, except the last socket, high.
+  const ringSockets = [
+    { label: 'Kitchen worktop left', position: null, lineNeutral: '0.26', lineCpc: '0.33' },
+    { label: 'Kitchen worktop right', position: null, lineNeutral: '0.26', lineCpc: '0.34' },
+    { label: 'Dining room', position: null, lineNeutral: '0.27', lineCpc: '0.35' },
+    { label: 'Utility', position: null, lineNeutral: '0.26', lineCpc: '0.49' },
+  ];
   const stamp = { revision: 2, issuedAt: new Date('2026-12-02T09:30:00.000Z'), issuedBy: 'Rhea Reviewer' };
 
   beforeAll(async () => {
@@ -45,8 +54,17 @@ describe('the issued PDF of an EICR', () => {
     for (const [index, circuit] of circuits.entries()) {
       const readings = readingsFor(index + 1, circuit.kind === 'ring' ? 'ring' : 'radial');
       if (index === 2) readings.zs = 'LIM';
+      if (circuit.kind === 'ring') {
+        // Invented end-to-end readings of a ring, and its socket readings (below).
+        Object.assign(readings, { ringR1: '0.52', ringRn: '0.52', ringR2: '0.86', r1PlusR2: '0.35' });
+        ringId = circuit.id;
+      }
       await writeReadings(t.db, circuit.id, readings, t.ids.tester, index === 2 ? { zs: 'Loft hatch sealed; no access to the far point' } : {});
     }
+    await t.db
+      .insertInto('ring_sockets')
+      .values({ circuit_id: ringId, data: JSON.stringify(ringSockets), version: 1, updated_by: t.ids.tester, updated_at: '2026-11-30T15:10:00.000Z' })
+      .execute();
     await addBoard(t.db, t.ids.job, t.ids.reviewer, { reference: 'TP-DB2', ways: 18, phases: 3, locked: true });
     document = (await loadJobDocument(t.db, t.ids.job, t.dataDir))!;
     pdf = await renderJobPdf(document, stamp);
@@ -85,6 +103,29 @@ describe('the issued PDF of an EICR', () => {
         expect(row, `results row of circuit ${circuit.number} on ${board.reference}: ${readings.join(' ')}`).toBeDefined();
       }
     }
+  });
+
+  it('when a ring has socket readings, then its board prints them socket by socket with the diagnosis in words', () => {
+    const ring = document.boards[0]!.circuits.find((c) => c.id === ringId)!;
+    const all = flat(text);
+    expect(all).toContain(`Ring ${ring.number} (${ring.description}): readings at each socket`);
+    const lines = text.split('\n');
+    ringSockets.forEach((s, i) => {
+      const row = lines.find((line) => line.startsWith(`${i + 1} ${s.label}`));
+      expect(row, `socket ${i + 1}`).toBeDefined();
+      expect(row).toContain(`${s.lineNeutral} ${s.lineCpc}`);
+    });
+    // A cross-connected ring reads the two halves in parallel: at most (r1+r2)/4 = (0.52+0.86)/4
+    // = 0.345 Ω anywhere on a sound ring (common practice). 0.49 Ω is well above it: the diagnosis
+    // must point at socket 4 alone.
+    expect(0.49).toBeGreaterThan((0.52 + 0.86) / 4 + 0.05);
+    expect(lines.find((line) => line.startsWith('4 Utility'))).toMatch(/yes$/);
+    expect(lines.find((line) => line.startsWith('3 Dining room'))).not.toMatch(/yes$/);
+    expect(all).toContain('Diagnosis: a reading high at a point (a spur or a loose termination).');
+    // The sockets come after the board's results and before the next board's schedule.
+    const at = all.indexOf(`Ring ${ring.number} (`);
+    expect(at).toBeGreaterThan(all.indexOf(`Schedule of test results: board ${document.boards[0]!.board.reference}`));
+    expect(at).toBeLessThan(all.indexOf('Schedule of test results: board TP-DB2'));
   });
 
   it('when a three-phase board is read, then its circuits keep their per-phase numbers as stored', () => {

@@ -1,6 +1,6 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState, type KeyboardEvent } from 'react';
-import { cellNumber, parseCell, ringProfile, type RingProfile } from '../../../../shared/checker/index.ts';
+import { diagnoseRingSockets, socketOhms, type RingProfile } from '../../../../shared/checker/index.ts';
 import type { Circuit } from '../../../../shared/schemas/boards.ts';
 import { ringSocketsResponseSchema, type RingSocket } from '../../../../shared/schemas/ring-sockets.ts';
 import { ApiError, apiGet, apiRequest } from '../../../lib/api-client.ts';
@@ -8,22 +8,11 @@ import { boardKeys } from '../api/board-keys.ts';
 
 const blankSocket = (): RingSocket => ({ label: '', position: null, lineNeutral: '', lineCpc: '' });
 
-function ohms(text: string): number | null {
-  const t = text.trim();
-  if (t === '') return null;
-  const parsed = parseCell('r1PlusR2', /^\.\d/.test(t) ? `0${t}` : t);
-  return parsed.kind === 'number' ? parsed.value : null;
-}
+const ohms = socketOhms;
 
 /** The ring's diagnosis from its end-to-end readings and the L-cpc readings typed; null when r1 or r2 is missing. */
 export function diagnose(circuit: Circuit, sockets: readonly RingSocket[]): RingProfile | null {
-  const number = (key: 'ringR1' | 'ringRn' | 'ringR2') => cellNumber(parseCell(key, circuit.cells[key]?.text ?? ''));
-  const r1 = number('ringR1');
-  const r2 = number('ringR2');
-  if (r1 === null || r2 === null || sockets.length === 0) return null;
-  const readings = sockets.map((s) => ohms(s.lineCpc));
-  const positions = sockets.every((s) => s.position !== null) ? sockets.map((s) => s.position!) : undefined;
-  return ringProfile({ r1, rn: number('ringRn'), r2, readings, positions });
+  return diagnoseRingSockets(circuit.cells, sockets);
 }
 
 /**

@@ -51,7 +51,7 @@ export function SendPanel({ jobId, personRole }: { jobId: number; personRole: Ro
               The document can be sent once the job is issued; it is {jobStateLabels[mail.data.jobState]}.
             </p>
           ) : mayAct ? (
-            <SendForm jobId={jobId} defaultTo={mail.data.defaultTo} revision={mail.data.latestIssue.revision} />
+            <SendForm jobId={jobId} defaultTo={mail.data.defaultTo} revision={mail.data.latestIssue.revision} photosChosen={mail.data.photosChosen} />
           ) : (
             <p className="text-muted">A reviewer or an admin sends revision {mail.data.latestIssue.revision} to the client.</p>
           )}
@@ -62,7 +62,7 @@ export function SendPanel({ jobId, personRole }: { jobId: number; personRole: Ro
   );
 }
 
-function SendForm({ jobId, defaultTo, revision }: { jobId: number; defaultTo: string; revision: number }) {
+function SendForm({ jobId, defaultTo, revision, photosChosen }: { jobId: number; defaultTo: string; revision: number; photosChosen: number }) {
   const send = useSendJob();
   const [errors, setErrors] = useState<{ to?: string; message?: string; form?: string }>({});
   const [queued, setQueued] = useState<string | null>(null);
@@ -107,7 +107,11 @@ function SendForm({ jobId, defaultTo, revision }: { jobId: number; defaultTo: st
   return (
     <form noValidate onSubmit={handleSubmit} aria-label="Send the issued document" className="space-y-2">
       <p>
-        Sends revision {revision} as a PDF attachment, with a short standard message and your own words if you add some.
+        Sends revision {revision} as a PDF attachment, with a short standard message and your own words if you add some. {photosChosen === 0
+          ? 'No photo of the notes goes with it (choose any under “Photos of the notes”).'
+          : photosChosen === 1
+            ? 'The one photo of the notes chosen under “Photos of the notes” goes with it.'
+            : `The ${photosChosen} photos of the notes chosen under “Photos of the notes” go with it.`}
       </p>
       <div className="space-y-1">
         <label htmlFor={toId} className="block font-medium">

@@ -1,4 +1,4 @@
-import { useCallback, useId, useMemo, useRef, useState, type FormEvent, type KeyboardEvent, type RefObject } from 'react';
+import { useCallback, useId, useMemo, useRef, useState, type FormEvent, type KeyboardEvent, type ReactNode, type RefObject } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import type { Role } from '../../../../shared/schemas/common.ts';
 import type { JobSectionData } from '../../../../shared/schemas/job-record.ts';
@@ -20,6 +20,7 @@ import { createReviewCommands, type ReviewContext, type ReviewSelection } from '
 import { FindingItem } from './finding-item.tsx';
 import { GateReasons } from './gate-reasons.tsx';
 import { JobRecordSummary } from './job-record-summary.tsx';
+import { RingSocketReadings } from './ring-socket-readings.tsx';
 import { UnlockBoardForm } from './unlock-board-form.tsx';
 
 const severityRank: Record<string, number> = { error: 0, warning: 1, note: 2 };
@@ -53,6 +54,8 @@ function messageOf(error: unknown): string {
 export interface ReviewJobPageProps {
   jobId: number;
   role: Role | null;
+  /** What other features show with the job record (the app places the job's photos here). */
+  recordPanels?: ReactNode;
 }
 
 /**
@@ -61,7 +64,7 @@ export interface ReviewJobPageProps {
  * accepts the selected error with a reason, l locks its board, o opens the board in the console,
  * b sends the job back (with a reason), Alt+Shift+A approves; Ctrl+K lists every command.
  */
-export function ReviewJobPage({ jobId, role }: ReviewJobPageProps) {
+export function ReviewJobPage({ jobId, role, recordPanels }: ReviewJobPageProps) {
   const query = useReviewJob(jobId);
   if (query.isPending) return <p className="p-4 text-muted">Loading the job…</p>;
   if (query.isError) {
@@ -71,10 +74,10 @@ export function ReviewJobPage({ jobId, role }: ReviewJobPageProps) {
       </p>
     );
   }
-  return <ReviewJobView review={query.data} role={role} />;
+  return <ReviewJobView review={query.data} role={role} recordPanels={recordPanels} />;
 }
 
-function ReviewJobView({ review, role }: { review: ReviewJob; role: Role | null }) {
+function ReviewJobView({ review, role, recordPanels }: { review: ReviewJob; role: Role | null; recordPanels?: ReactNode }) {
   const jobId = review.job.id;
   const navigate = useNavigate();
   const accept = useAcceptFinding(jobId);
@@ -336,6 +339,7 @@ function ReviewJobView({ review, role }: { review: ReviewJob; role: Role | null 
                 ) : (
                   <p className="text-sm text-muted">No findings about values on this board.</p>
                 )}
+                <RingSocketReadings boardReference={b.board.reference} rings={b.rings ?? []} />
               </section>
             );
           })}
@@ -350,6 +354,7 @@ function ReviewJobView({ review, role }: { review: ReviewJob; role: Role | null 
               {orderFindings(review.jobFindings).map((f) => renderFinding(null, f))}
             </ul>
           )}
+          {recordPanels}
           <JobRecordSummary job={review.job} record={record} />
         </section>
       </div>
