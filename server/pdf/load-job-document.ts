@@ -8,6 +8,7 @@ import { loadCompany } from '../db/company.ts';
 import type { DB } from '../db/database.ts';
 import { loadJobRecord } from '../db/job-sections.ts';
 import { toJob, toSite } from '../db/mappers.ts';
+import { signaturesInUse } from '../db/signature-revisions.ts';
 import type { SignatureRow } from '../db/types.ts';
 import { loadRingReadings } from '../db/ring-sockets.ts';
 import { userNames } from '../db/users.ts';
@@ -80,12 +81,10 @@ export async function loadJobDocument(db: DB, jobId: number, dataDir: string): P
     return file && embeddable.has(file.row.mime) ? { bytes: file.bytes, mime: file.row.mime } : null;
   };
 
-  // The latest signature of each role counts (a person may sign again after a change).
-  const signatureRows = await db.selectFrom('signatures').selectAll().where('job_id', '=', jobId).orderBy('id').execute();
-  const latestByRole = new Map<string, SignatureRow>();
-  for (const row of signatureRows) latestByRole.set(row.role, row);
+  // The latest signature of each role given since the job was last reopened counts (a person may
+  // sign again after a change; signatures given for an earlier revision never count again).
   const signatures: DocumentSignature[] = [];
-  for (const row of latestByRole.values()) {
+  for (const row of await signaturesInUse(db, jobId)) {
     signatures.push({
       role: row.role,
       name: row.name,

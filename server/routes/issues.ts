@@ -5,6 +5,7 @@ import { jobStateLabels } from '../../shared/schemas/sites.ts';
 import type { DB } from '../db/database.ts';
 import { toJob } from '../db/mappers.ts';
 import type { JobRow } from '../db/types.ts';
+import { loadReopenings } from '../db/signature-revisions.ts';
 import { userNames } from '../db/users.ts';
 import { HttpError, notFound } from '../http-error.ts';
 import { currentUser, requireRole } from '../middleware/auth.ts';
@@ -43,9 +44,14 @@ export function issueRoutes(db: DB, options: { dataDir: string }): Router {
     }
     const document = await loadJobDocument(db, jobId, dataDir);
     if (!document) throw notFound(`Job ${jobId}`);
-    const unsigned = missingSignatures(document);
+    const reopenings = await loadReopenings(db, jobId);
+    const unsigned = missingSignatures(document, reopenings.length > 0);
     if (unsigned.length > 0) {
-      throw new HttpError('conflict', `${job.reference} cannot be issued until it is signed: ${unsigned.join('; ')}.`, { reasons: unsigned });
+      const latest = reopenings.at(-1);
+      const why = latest
+        ? ` Revision ${latest.revision} was reopened on ${latest.at.slice(0, 10)}${latest.reason ? ` (“${latest.reason}”)` : ''}, so the document may have changed since it was signed: the signatures given for revision ${latest.revision} stay with it and do not count for revision ${latest.revision + 1}.`
+        : '';
+      throw new HttpError('conflict', `${job.reference} cannot be issued until it is signed: ${unsigned.join('; ')}.${why}`, { reasons: unsigned });
     }
 
     const last = await db.selectFrom('job_issues').select((eb) => eb.fn.max('revision').as('revision')).where('job_id', '=', jobId).executeTakeFirst();
@@ -157,8 +163,12 @@ export function issueRoutes(db: DB, options: { dataDir: string }): Router {
   return router;
 }
 
-/** The signatures an issue needs: EIC its designer, constructor and inspector (or one person for all); EICR its inspector and reviewer. */
-function missingSignatures(document: JobDocument): string[] {
+/**
+ * The signatures an issue needs: EIC its designer, constructor and inspector (or one person for
+ * all); EICR its inspector and reviewer. `document.signatures` holds only those given since the
+ * latest reopening, so after a reopening every person is asked to sign again.
+ */
+function missingSignatures(document: JobDocument, reopened: boolean): string[] {
   const signed = new Set(document.signatures.map((s) => s.role));
   const declaration = document.record.declaration.data;
   const needed: { role: 'designer' | 'constructor' | 'inspector' | 'reviewer'; words: string }[] =
@@ -174,7 +184,7 @@ function missingSignatures(document: JobDocument): string[] {
           { role: 'inspector', words: 'the inspector has not signed' },
           { role: 'reviewer', words: 'the reviewer has not signed' },
         ];
-  return needed.filter((n) => !signed.has(n.role)).map((n) => n.words);
+  return needed.filter((n) => !signed.has(n.role)).map((n) => (reopened ? `${n.words} again since the job was reopened` : n.words));
 }
 
 /** A reference as a file name: letters, digits, dot, dash and underscore only. */

@@ -7,6 +7,7 @@ import {
   type Signature,
 } from '../../shared/schemas/signatures.ts';
 import type { DB } from '../db/database.ts';
+import { loadReopenings, revisionInHand, revisionOfSignature, type Reopening } from '../db/signature-revisions.ts';
 import type { SignatureRow } from '../db/types.ts';
 import { userNames } from '../db/users.ts';
 import { imageTypes, singleUpload, type FileStore, type UploadedFile } from '../files.ts';
@@ -20,14 +21,20 @@ async function requireJob(db: DB, jobId: number) {
   return job;
 }
 
-/** Every signature of a job, newest first; the newest per role is the one in use. */
-export async function listSignatures(db: DB, jobId: number): Promise<Signature[]> {
+/**
+ * Every signature of a job, newest first, each with the revision it was given for; the newest
+ * per role given for the revision in hand is the one in use (see signature-revisions.ts).
+ */
+export async function listSignatures(db: DB, jobId: number, reopenings?: readonly Reopening[]): Promise<Signature[]> {
   const rows = await db.selectFrom('signatures').selectAll().where('job_id', '=', jobId).orderBy('id', 'desc').execute();
   const names = await userNames(db);
+  const reopens = reopenings ?? (await loadReopenings(db, jobId));
+  const inHand = revisionInHand(reopens);
   const seen = new Set<string>();
   return rows.map((row: SignatureRow) => {
-    const current = !seen.has(row.role);
-    seen.add(row.role);
+    const revision = revisionOfSignature(row.signed_at, reopens);
+    const current = revision === inHand && !seen.has(row.role);
+    if (revision === inHand) seen.add(row.role);
     return {
       id: row.id,
       jobId: row.job_id,
@@ -37,6 +44,7 @@ export async function listSignatures(db: DB, jobId: number): Promise<Signature[]
       signedBy: { id: row.user_id, name: names.get(row.user_id) ?? 'someone removed' },
       signedAt: row.signed_at,
       current,
+      revision,
     };
   });
 }
@@ -53,7 +61,19 @@ export function signatureRoutes(db: DB, files: FileStore): Router {
 
   router.get('/jobs/:jobId/signatures', async (req, res) => {
     const job = await requireJob(db, idParam(req, 'jobId'));
-    res.json({ signatures: await listSignatures(db, job.id), jobKind: job.kind, jobState: job.state, roles: signingRolesFor(job.kind) });
+    const reopenings = await loadReopenings(db, job.id);
+    const latest = reopenings.at(-1);
+    const names = await userNames(db);
+    res.json({
+      signatures: await listSignatures(db, job.id, reopenings),
+      jobKind: job.kind,
+      jobState: job.state,
+      roles: signingRolesFor(job.kind),
+      revision: revisionInHand(reopenings),
+      reopened: latest
+        ? { at: latest.at, by: { id: latest.userId ?? 0, name: (latest.userId !== null && names.get(latest.userId)) || 'someone removed' }, reason: latest.reason, revision: latest.revision }
+        : null,
+    });
   });
 
   router.post(

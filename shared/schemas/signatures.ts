@@ -38,8 +38,14 @@ export const signatureSchema = z.object({
   fileId: z.number().int(),
   signedBy: z.object({ id: z.number().int(), name: z.string() }),
   signedAt: z.string(),
-  /** False once the same role signed again later (the earlier signature is kept, not used). */
+  /**
+   * True for the one signature of its role that counts for the revision in hand: the newest given
+   * since the job was last reopened. False once the same role signed again later, and for every
+   * signature given for an earlier revision (kept, listed, never used again).
+   */
   current: z.boolean(),
+  /** The revision this signature was given for (1 until the job is first reopened after issue). */
+  revision: z.number().int().positive(),
 });
 export type Signature = z.infer<typeof signatureSchema>;
 
@@ -50,6 +56,15 @@ export const jobSignaturesResponseSchema = z.object({
   jobState: z.enum(jobStates),
   /** The roles this document has, in order. */
   roles: z.array(z.enum(signingRoles)),
+  /** The revision being prepared, or the one issued while the job is issued. */
+  revision: z.number().int().positive(),
+  /**
+   * The latest reopening of the issued job, or null if it never was: from then on the signatures
+   * given for `revision - 1` no longer count, because the document may change before it is issued again.
+   */
+  reopened: z
+    .object({ at: z.string(), by: z.object({ id: z.number().int(), name: z.string() }), reason: z.string().nullable(), revision: z.number().int().positive() })
+    .nullable(),
 });
 export type JobSignatures = z.infer<typeof jobSignaturesResponseSchema>;
 

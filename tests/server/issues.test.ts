@@ -1,10 +1,13 @@
 import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
+import { PDFParse } from 'pdf-parse';
 import type { Response } from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { jobIssueListResponseSchema } from '../../shared/schemas/issues.ts';
+import { jobSignaturesResponseSchema } from '../../shared/schemas/signatures.ts';
 import { addCompany, addEicrRecord, addSignatures } from '../helpers/issue-fixture.ts';
+import { pngBytes } from '../helpers/images.ts';
 import { createTestApp, type TestApp } from '../helpers/test-app.ts';
 
 /** Collects a binary answer (the PDF) as a Buffer. */
@@ -155,6 +158,10 @@ describe('POST /api/jobs/:jobId/reopen and the next revision', () => {
     await t.db.updateTable('sites').set({ address: '3 Quince Row, Eastbridge EB2 7LA' }).where('id', '=', t.ids.site).execute();
     await setState('approved');
     const admin = await t.signIn('admin');
+    // Signatures given for revision 1 do not count for revision 2 (see "signatures after a reopening").
+    for (const [role, name] of [['inspector', 'Priya Okonkwo'], ['reviewer', 'Daniel Marsh']]) {
+      expect((await admin.post(`/api/jobs/${t.ids.job}/signatures`).field('role', role!).field('name', name!).attach('image', pngBytes(), 'signature.png')).status).toBe(201);
+    }
     const second = await admin.post(`/api/jobs/${t.ids.job}/issue`);
     expect(second.status).toBe(201);
     expect(second.body.issue.revision).toBe(2);
@@ -174,6 +181,84 @@ describe('POST /api/jobs/:jobId/reopen and the next revision', () => {
     expect(sha256(secondPdf.body)).toBe(second.body.issue.sha256);
     // Both files are kept.
     expect(await t.db.selectFrom('files').selectAll().where('kind', '=', 'issued-pdf').execute()).toHaveLength(2);
+  });
+});
+
+/** The text of a PDF as pdf-parse (a general-purpose PDF library from npm, not ours) reads it. */
+async function pdfText(bytes: Buffer): Promise<string> {
+  const parser = new PDFParse({ data: new Uint8Array(bytes) });
+  try {
+    return (await parser.getText()).text;
+  } finally {
+    await parser.destroy();
+  }
+}
+
+describe('signatures after a reopening', () => {
+  it('when an issued job is reopened, then issuing is refused until both sign again, and revision 2 carries the new signatures while revision 1 stays as issued', async () => {
+    await approvedAndSigned();
+    const reviewer = await t.signIn('reviewer');
+    const tester = await t.signIn('tester');
+    const first = await reviewer.post(`/api/jobs/${t.ids.job}/issue`);
+    expect(first.status).toBe(201);
+    const firstPdf = await download(reviewer, 1);
+    // Common practice: a signature vouches for the document as it stood when it was given.
+    expect(await pdfText(firstPdf.body)).toContain('Signed as Priya Okonkwo');
+
+    const reason = 'Client reported the wrong meter position';
+    expect((await reviewer.post(`/api/jobs/${t.ids.job}/reopen`).send({ reason })).status).toBe(200);
+    await setState('approved'); // the change and the review's approval, set directly here
+
+    const refused = await reviewer.post(`/api/jobs/${t.ids.job}/issue`);
+    expect(refused.status).toBe(409);
+    expect(refused.body.error.details.reasons).toEqual([
+      'the inspector has not signed again since the job was reopened',
+      'the reviewer has not signed again since the job was reopened',
+    ]);
+    expect(refused.body.error.message).toContain(reason);
+    expect(refused.body.error.message).toContain('do not count for revision 2');
+
+    // The earlier signatures are still listed, as revision 1's; none is in use.
+    const listed = jobSignaturesResponseSchema.parse((await tester.get(`/api/jobs/${t.ids.job}/signatures`)).body);
+    expect(listed.revision).toBe(2);
+    expect(listed.reopened).toMatchObject({ reason, revision: 1, by: { name: 'Rhea Reviewer' } });
+    expect(listed.signatures.map((s) => [s.name, s.revision, s.current])).toEqual([
+      ['Daniel Marsh', 1, false],
+      ['Priya Okonkwo', 1, false],
+    ]);
+
+    const signAs = (agent: typeof reviewer, role: string, name: string) =>
+      agent.post(`/api/jobs/${t.ids.job}/signatures`).field('role', role).field('name', name).attach('image', pngBytes(), 'signature.png');
+    expect((await signAs(tester, 'inspector', 'Ines Marlowe')).status).toBe(201);
+    const stillOne = await reviewer.post(`/api/jobs/${t.ids.job}/issue`);
+    expect(stillOne.status).toBe(409);
+    expect(stillOne.body.error.details.reasons).toEqual(['the reviewer has not signed again since the job was reopened']);
+    expect(await t.db.selectFrom('job_issues').selectAll().execute()).toHaveLength(1);
+
+    expect((await signAs(reviewer, 'reviewer', 'Rafe Castellan')).status).toBe(201);
+    const second = await reviewer.post(`/api/jobs/${t.ids.job}/issue`);
+    expect(second.status).toBe(201);
+    expect(second.body.issue.revision).toBe(2);
+
+    const secondText = await pdfText((await download(reviewer, 2)).body);
+    expect(secondText).toContain('Signed as Ines Marlowe');
+    expect(secondText).toContain('Signed as Rafe Castellan');
+    expect(secondText).not.toContain('Signed as Priya Okonkwo');
+    expect(secondText).not.toContain('Signed as Daniel Marsh');
+
+    // Revision 1 is byte for byte what was issued (SHA-256 by Node's crypto, not the server's).
+    const firstAgain = await download(reviewer, 1);
+    expect(sha256(firstAgain.body)).toBe(sha256(firstPdf.body));
+    expect(sha256(firstAgain.body)).toBe(first.body.issue.sha256);
+    expect(await pdfText(firstAgain.body)).toContain('Signed as Daniel Marsh');
+  });
+
+  it('when a job was never reopened, then signatures given before review still count (the demo EICR is signed by its inspector before review)', async () => {
+    await approvedAndSigned();
+    const listed = jobSignaturesResponseSchema.parse((await (await t.signIn('reviewer')).get(`/api/jobs/${t.ids.job}/signatures`)).body);
+    expect(listed.reopened).toBeNull();
+    expect(listed.signatures.every((s) => s.current && s.revision === 1)).toBe(true);
+    expect((await (await t.signIn('reviewer')).post(`/api/jobs/${t.ids.job}/issue`)).status).toBe(201);
   });
 });
 

@@ -72,7 +72,7 @@ describe('issue panel', () => {
     expect(calls.filter((c) => c.method === 'POST')).toHaveLength(0);
 
     await user.type(field, 'Ze was recorded at the wrong board{Enter}');
-    expect(await screen.findByRole('status')).toHaveTextContent('Reopened: the job is being entered again. Revision 2 stays as issued; the next issue will be revision 3.');
+    expect(await screen.findByRole('status')).toHaveTextContent('Reopened: the job is being entered again. Revision 2 stays as issued; the next issue will be revision 3. Everyone signs again for it');
     expect(calls.find((c) => c.method === 'POST')?.body).toEqual({ reason: 'Ze was recorded at the wrong board' });
     // Both revisions stay listed, the older one marked superseded.
     const items = within(screen.getByRole('list', { name: 'Revisions' })).getAllByRole('listitem');

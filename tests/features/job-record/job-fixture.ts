@@ -103,6 +103,12 @@ export function createFakeJobServer(kind: 'EIC' | 'EICR' = 'EICR', state: Job['s
     lock: () => {
       locked = true;
     },
+    /** Someone else moves the job on (submits, approves…): its state and version change. */
+    setJobState: (next: Job['state']) => {
+      theJob.state = next;
+      theJob.version += 1;
+      locked = next === 'approved' || next === 'issued';
+    },
     handlers: {
       [`GET /api/jobs/${theJob.id}`]: () => json(200, detail()),
       [`GET /api/jobs/${theJob.id}/history`]: () => json(200, { entries: history }),

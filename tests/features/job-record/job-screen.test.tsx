@@ -4,9 +4,10 @@ import { JobRecordPage } from '../../../src/features/job-record/components/job-r
 import { json, renderWithProviders, stubApi, type ApiCall } from '../../helpers/render.tsx';
 import { createFakeJobServer } from './job-fixture.ts';
 
-function renderJob(server: ReturnType<typeof createFakeJobServer>) {
+/** The screen polls the job every few seconds; these tests keep it still unless they test polling. */
+function renderJob(server: ReturnType<typeof createFakeJobServer>, refreshEveryMs: number | false = false) {
   const calls = stubApi(server.handlers);
-  const result = renderWithProviders(<JobRecordPage />, { path: '/jobs/:jobId', initialEntries: ['/jobs/41'], otherRoutes: { '/boards/:boardId': <p>Board console</p> } });
+  const result = renderWithProviders(<JobRecordPage refreshEveryMs={refreshEveryMs} />, { path: '/jobs/:jobId', initialEntries: ['/jobs/41'], otherRoutes: { '/boards/:boardId': <p>Board console</p> } });
   return { ...result, calls };
 }
 
@@ -212,5 +213,74 @@ describe('job screen: a slow reload of the job', () => {
       { version: 1, changes: { zeOhm: 0.31 } },
     ]);
     expect(screen.queryByRole('alert')).not.toBeInTheDocument();
+  });
+});
+
+describe('job screen: other people’s changes arrive while it is open', () => {
+  // A short interval stands in for the screen's few seconds (JOB_REFRESH_MS).
+  const poll = 40;
+  const gets = (calls: ApiCall[]) => calls.filter((c) => c.method === 'GET' && c.path === '/api/jobs/41').length;
+
+  it('when another person changes a field, submits and then approves the job, then each shows without a reload and the record becomes read-only', async () => {
+    const server = createFakeJobServer('EICR');
+    renderJob(server, poll);
+    const orderedBy = await screen.findByLabelText('Asked for by');
+
+    server.writeAsOther('client', 'orderedBy', 'Millbrook Lettings');
+    await waitFor(() => expect(orderedBy).toHaveValue('Millbrook Lettings'));
+
+    server.setJobState('ready');
+    expect(await screen.findByLabelText('State: ready for review')).toBeInTheDocument();
+    server.setJobState('approved');
+    expect(await screen.findByLabelText('State: approved')).toBeInTheDocument();
+    await waitFor(() => expect(orderedBy).toHaveAttribute('readonly'));
+  });
+
+  it('when a field is being typed in as another person’s change arrives, then the typing is left alone, and leaving the field offers theirs and mine instead of replacing theirs', async () => {
+    const server = createFakeJobServer('EICR');
+    const { user, calls } = renderJob(server, poll);
+    const orderedBy = await screen.findByLabelText('Asked for by');
+    const address = screen.getByLabelText('Their address');
+
+    await user.click(orderedBy);
+    await user.keyboard('Priya Ok');
+    server.writeAsOther('client', 'orderedByAddress', '4 Tannery Yard, Eastbridge');
+    server.writeAsOther('client', 'orderedBy', 'Millbrook Lettings');
+    // The other field shows the poll has landed; the one being typed in keeps the typing and the focus.
+    await waitFor(() => expect(address).toHaveValue('4 Tannery Yard, Eastbridge'));
+    const before = gets(calls);
+    await waitFor(() => expect(gets(calls)).toBeGreaterThan(before + 1));
+    expect(orderedBy).toHaveValue('Priya Ok');
+    expect(orderedBy).toHaveFocus();
+
+    await user.keyboard('afor{Tab}');
+    const alert = await screen.findByRole('alert');
+    expect(alert).toHaveTextContent('Theirs: Millbrook Lettings');
+    expect(alert).toHaveTextContent('yours: Priya Okafor');
+    // Nothing went with the newer version the poll brought: theirs is not silently replaced.
+    expect(puts(calls, 'client')).toHaveLength(0);
+    expect(server.record.client.data.orderedBy).toBe('Millbrook Lettings');
+
+    await user.click(within(alert).getByRole('button', { name: 'Keep mine' }));
+    await waitFor(() => expect(server.record.client.data.orderedBy).toBe('Priya Okafor'));
+  });
+
+  it('when the page is hidden, then the job is not asked for again until it is visible', async () => {
+    const server = createFakeJobServer('EICR');
+    const { calls } = renderJob(server, poll);
+    await screen.findByLabelText('Asked for by');
+    const visibility = vi.spyOn(document, 'visibilityState', 'get').mockReturnValue('hidden');
+    try {
+      document.dispatchEvent(new Event('visibilitychange'));
+      const hiddenAt = gets(calls);
+      await new Promise((resolve) => setTimeout(resolve, poll * 6));
+      // At most one request that was already on its way when the page was hidden.
+      expect(gets(calls)).toBeLessThanOrEqual(hiddenAt + 1);
+    } finally {
+      visibility.mockRestore();
+      document.dispatchEvent(new Event('visibilitychange'));
+    }
+    const shownAt = gets(calls);
+    await waitFor(() => expect(gets(calls)).toBeGreaterThan(shownAt));
   });
 });

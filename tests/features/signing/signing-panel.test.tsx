@@ -13,6 +13,7 @@ const signature = (changes: Partial<Signature>): Signature => ({
   signedBy: { id: 3, name: 'Tom Tester' },
   signedAt: '2026-11-30T09:00:00.000Z',
   current: true,
+  revision: 1,
   ...changes,
 });
 
@@ -40,6 +41,8 @@ const eicr = (changes: Partial<JobSignatures> = {}): JobSignatures => ({
   jobKind: 'EICR',
   jobState: 'ready',
   roles: ['inspector', 'reviewer'],
+  revision: 1,
+  reopened: null,
   ...changes,
 });
 
@@ -101,6 +104,22 @@ describe('signing panel', () => {
     await user.click(screen.getByRole('button', { name: 'Sign as inspector' }));
     expect(await screen.findByText(/must be a PNG or JPEG image/)).toBeInTheDocument();
     expect(screen.getByLabelText(/Signature image/)).toHaveAttribute('aria-invalid', 'true');
+  });
+
+  it('when the job was reopened after issue, then no signature is in use, the earlier ones are listed as revision 1’s and the panel says why everyone signs again', async () => {
+    stubSigningApi(
+      eicr({
+        jobState: 'entering',
+        revision: 2,
+        reopened: { at: '2026-12-02T08:00:00.000Z', by: { id: 2, name: 'Rhea Reviewer' }, reason: 'Wrong meter position', revision: 1 },
+        signatures: [signature({ id: 2, role: 'reviewer', name: 'Rhea Reviewer', current: false }), signature({ current: false })],
+      }),
+    );
+    renderWithProviders(<SigningPanel jobId={5} person={{ role: 'tester', name: 'Tom Tester' }} />);
+    const inUse = await screen.findByRole('list', { name: 'Signatures in use' });
+    expect(within(inUse).getAllByText('Not signed yet.')).toHaveLength(2);
+    expect(screen.getByText(/Rhea Reviewer reopened revision 1 on .*Wrong meter position.*Everyone signs again for revision 2/)).toBeInTheDocument();
+    expect(screen.getByText(/inspector \(inspection and testing\): Tom Tester, .*given for revision 1/)).toBeInTheDocument();
   });
 
   it('when the job is issued, then no form shows, only why', async () => {

@@ -75,7 +75,7 @@ export function IssuePanel({ jobId, role }: { jobId: number; role: Role | null }
     reopen.mutate(parsed.data, {
       onSuccess: () => {
         setReason('');
-        setStatus({ text: `Reopened: the job is being entered again. Revision ${next - 1} stays as issued; the next issue will be revision ${next}.`, tone: 'info' });
+        setStatus({ text: `Reopened: the job is being entered again. Revision ${next - 1} stays as issued; the next issue will be revision ${next}. Everyone signs again for it: a signature stays with the revision it was given for.`, tone: 'info' });
       },
       onError: (error) => {
         if (error instanceof ApiError && error.status === 400) {

@@ -33,7 +33,19 @@ export const jobDetailQueryOptions = (jobId: number) =>
     queryFn: ({ signal }) => getJob(jobId, signal),
   });
 
-/** `select` may lift the record to what the screen's own writes already know (see RecordSaver.withLatest). */
-export function useJobDetail(jobId: number, select?: (detail: JobDetail) => JobDetail) {
-  return useQuery({ ...jobDetailQueryOptions(jobId), select });
+/**
+ * How often the job screen asks for the job again while the page is visible, so a second
+ * person's record changes and the job's state (submitted, approved, issued) show within seconds.
+ */
+export const JOB_REFRESH_MS = 4000;
+
+/**
+ * `select` may lift the record to what the screen's own writes already know (see
+ * RecordSaver.withLatest). `refreshEveryMs` polls while the page is visible (TanStack Query
+ * pauses an interval while the document is hidden, as `refetchIntervalInBackground` is off);
+ * `false` turns it off. A poll never overwrites a field being typed in: each field keeps the
+ * person's draft until it is saved (record-fields.tsx).
+ */
+export function useJobDetail(jobId: number, select?: (detail: JobDetail) => JobDetail, refreshEveryMs: number | false = JOB_REFRESH_MS) {
+  return useQuery({ ...jobDetailQueryOptions(jobId), select, refetchInterval: refreshEveryMs, refetchIntervalInBackground: false });
 }

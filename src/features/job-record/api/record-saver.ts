@@ -127,6 +127,7 @@ export class RecordSaver {
     try {
       const answer = await writeSection(this.jobId, section, { version, changes: { [field]: value } });
       this.putSection(section, answer.section, { findings: answer.findings, cursor: answer.cursor });
+      this.stored.set(fieldKey(section, field), value);
       // Only a newer change of the same field may replace this state.
       const now = this.state(section, field);
       if (now?.status === 'saving' && Object.is(now.value, value)) this.setState(section, field, { status: 'saved' });
@@ -172,6 +173,25 @@ export class RecordSaver {
   /** After a conflict: leave theirs, drop mine. */
   takeTheirs(section: JobSectionKey, field: string) {
     this.setState(section, field, undefined);
+  }
+
+  /** The last value this saver stored for each field: a value seen on the server that is one of ours is no one else's change. */
+  private readonly stored = new Map<string, unknown>();
+
+  /** Whether `value` is what this saver last stored for the field (so not someone else's change). */
+  isOwnValue(section: JobSectionKey, field: string, value: unknown): boolean {
+    const key = fieldKey(section, field);
+    return this.stored.has(key) && JSON.stringify(this.stored.get(key)) === JSON.stringify(value);
+  }
+
+  /**
+   * The field changed on the server (another person, shown by the job's polling) while this person
+   * was typing over the value they started from: nothing is sent, and the field offers keep mine /
+   * take theirs as after a 409. Without this, the draft would go with the newer version the poll
+   * brought and silently replace theirs.
+   */
+  conflictWhileTyping(section: JobSectionKey, field: string, mine: unknown, theirs: unknown) {
+    this.setState(section, field, { status: 'conflict', mine, theirs });
   }
 
   /** Forget a field's state (e.g. an error the person fixed by putting the old value back). */

@@ -1,5 +1,5 @@
 import { useQueryClient } from '@tanstack/react-query';
-import { useLayoutEffect, useMemo, useRef, useState, useSyncExternalStore, type ReactNode } from 'react';
+import { useEffect, useLayoutEffect, useMemo, useRef, useState, useSyncExternalStore, type ReactNode } from 'react';
 import { useLocation, useNavigate, useParams } from 'react-router-dom';
 import type { Finding } from '../../../../shared/schemas/findings.ts';
 import { sectionsFor, type JobSectionKey } from '../../../../shared/schemas/job-record.ts';
@@ -11,6 +11,7 @@ import { createGeneralCommands, OPEN_PALETTE_KEY, SHOW_KEYS_KEY } from '../../..
 import { createRegistry } from '../../../lib/commands/registry.ts';
 import { useCommandKeys } from '../../../lib/commands/use-command-keys.ts';
 import { useJobDetail } from '../api/get-job.ts';
+import { jobRecordKeys } from '../api/job-record-keys.ts';
 import { RecordSaver } from '../api/record-saver.ts';
 import {
   createJobScreenCommands,
@@ -35,6 +36,8 @@ export interface JobRecordPageProps {
   actions?: readonly JobScreenAction[];
   /** Panels of other features (review, signing, issue…), shown beside the findings. */
   panels?: ReactNode;
+  /** How often the job is asked for again while the page is visible; `false` turns it off (tests). */
+  refreshEveryMs?: number | false;
 }
 
 /** `/jobs/:jobId`: the job screen. */
@@ -44,7 +47,8 @@ export function JobRecordPage(props: JobRecordPageProps) {
   const queryClient = useQueryClient();
   // One saver per job shown: it keeps the save state of every field.
   const saver = useMemo(() => new RecordSaver(queryClient, jobId), [queryClient, jobId]);
-  const job = useJobDetail(jobId, saver.withLatest);
+  const job = useJobDetail(jobId, saver.withLatest, props.refreshEveryMs);
+  useOtherPanelsFollow(jobId, job.data?.job.version);
 
   if (!Number.isInteger(jobId) || jobId <= 0) return <p className="p-4">There is no such job.</p>;
   if (job.isPending) return <p className="p-4 text-muted">Loading the job…</p>;
@@ -58,6 +62,26 @@ export function JobRecordPage(props: JobRecordPageProps) {
       </div>
     );
   return <JobScreen key={jobId} {...props} detail={job.data} saver={saver} />;
+}
+
+/**
+ * When a poll brings a new version of the job (another person submitted, approved, issued,
+ * reopened or changed it), every other query under `['jobs']` — the panels' state and gate,
+ * signatures, issues — is fetched again, so the whole screen moves together.
+ */
+function useOtherPanelsFollow(jobId: number, version: number | undefined) {
+  const queryClient = useQueryClient();
+  const seen = useRef<number | undefined>(undefined);
+  useEffect(() => {
+    if (version === undefined) return;
+    if (seen.current !== undefined && seen.current !== version) {
+      void queryClient.invalidateQueries({
+        queryKey: jobRecordKeys.all,
+        predicate: (query) => !(query.queryKey[1] === 'detail' && query.queryKey[2] === jobId && query.queryKey.length === 3),
+      });
+    }
+    seen.current = version;
+  }, [queryClient, jobId, version]);
 }
 
 const SECTION_COMPONENTS: Record<Exclude<JobSectionKey, 'inspections' | 'observations'>, () => ReactNode> = {

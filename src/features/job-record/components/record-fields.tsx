@@ -1,4 +1,4 @@
-import { useState, type KeyboardEvent, type ReactNode } from 'react';
+import { useRef, useState, type KeyboardEvent, type ReactNode } from 'react';
 import type { JobSectionKey } from '../../../../shared/schemas/job-record.ts';
 import { numberOrText } from '../../../lib/form-errors.ts';
 import type { FieldState } from '../api/record-saver.ts';
@@ -104,6 +104,8 @@ function DraftField({
   const state = useFieldState(section, field);
   const stored = (detail.record[section].data as Record<string, unknown>)[field];
   const [draft, setDraft] = useState<string | null>(null);
+  // The stored value the person started typing over: the job is polled, so it may change meanwhile.
+  const typedOver = useRef<unknown>(undefined);
   const id = fieldDomId(section, field);
   const storedText = stored === null || stored === undefined ? '' : String(stored);
   const shownText = draft ?? (state?.status === 'conflict' ? String(state.mine ?? '') : storedText);
@@ -116,6 +118,14 @@ function DraftField({
     if (value === stored || (value === null && stored === null)) {
       setDraft(null);
       if (state?.status === 'error') saver.clear(section, field);
+      return;
+    }
+    const startedFrom = typedOver.current;
+    if (startedFrom !== undefined && JSON.stringify(startedFrom ?? null) !== JSON.stringify(stored ?? null) && !saver.isOwnValue(section, field, stored)) {
+      // Someone else changed this field while it was being typed in: ask, as a 409 would.
+      saver.conflictWhileTyping(section, field, value, stored ?? null);
+      typedOver.current = undefined;
+      setDraft(null);
       return;
     }
     const sent = draft;
@@ -142,7 +152,10 @@ function DraftField({
     readOnly: readOnlyReason !== null,
     'aria-invalid': invalid || undefined,
     'aria-describedby': `${id}-status${hint ? ` ${id}-hint` : ''}`,
-    onChange: (event: { target: { value: string } }) => setDraft(event.target.value),
+    onChange: (event: { target: { value: string } }) => {
+      if (draft === null) typedOver.current = stored ?? null;
+      setDraft(event.target.value);
+    },
     onBlur: () => void commit(),
     className: controlClass,
   };

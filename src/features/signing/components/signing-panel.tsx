@@ -60,8 +60,17 @@ export function SigningPanel({ jobId, person }: { jobId: number; person: Signing
 
 function CurrentSignatures({ data }: { data: JobSignatures }) {
   const earlier = data.signatures.filter((s) => !s.current);
+  const reopened = data.reopened;
   return (
     <div className="space-y-2">
+      {reopened && (
+        <p className="rounded border border-line bg-paper px-2 py-1 text-sm">
+          {reopened.by.name} reopened revision {reopened.revision} on {when(reopened.at)}
+          {reopened.reason ? <> (“{reopened.reason}”)</> : null}. Everyone signs again for revision {data.revision}: the document may
+          change before it is issued again, and a signature stays with the revision it was given for. Revision {reopened.revision}’s
+          signatures are kept below.
+        </p>
+      )}
       <ul className="grid gap-2 sm:grid-cols-2" aria-label="Signatures in use">
         {data.roles.map((role) => {
           const signature = data.signatures.find((s) => s.role === role && s.current);
@@ -80,6 +89,7 @@ function CurrentSignatures({ data }: { data: JobSignatures }) {
             {earlier.map((s) => (
               <li key={s.id} className="text-sm">
                 {signingRoleLabels[s.role]}: {s.name}, {when(s.signedAt)} (by {s.signedBy.name})
+                {s.revision < data.revision && `, given for revision ${s.revision}`}
               </li>
             ))}
           </ul>
