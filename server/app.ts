@@ -41,6 +41,31 @@ const PgStore = makePgStore(session);
 /** How often a session's stored expiry is renewed at most (every request renews the cookie). */
 export const sessionRenewalMs = 60_000;
 
+/** Remembers when each session's expiry was last written, so it is renewed at most once a minute. */
+class RenewalNotes {
+  private readonly renewedAt = new Map<string, number>();
+
+  written(sid: string): void {
+    this.renewedAt.set(sid, Date.now());
+  }
+
+  /** True when the session's expiry should be written now (and notes that it is). */
+  due(sid: string): boolean {
+    const now = Date.now();
+    const last = this.renewedAt.get(sid);
+    if (last !== undefined && now - last < sessionRenewalMs) return false;
+    if (this.renewedAt.size > 10_000) {
+      for (const [id, at] of this.renewedAt) if (now - at >= sessionRenewalMs) this.renewedAt.delete(id);
+    }
+    this.renewedAt.set(sid, now);
+    return true;
+  }
+
+  forget(sid: string): void {
+    this.renewedAt.delete(sid);
+  }
+}
+
 /**
  * The SQLite session store, with two changes: its expiry sweep does not keep a process (a script,
  * a test) alive, and a session's expiry is written at most once a minute rather than on every
@@ -48,33 +73,24 @@ export const sessionRenewalMs = 60_000;
  * cookie says, out of 12 hours.
  */
 class QuietSqliteStore extends SqliteStore {
-  private readonly renewedAt = new Map<string, number>();
+  private readonly renewals = new RenewalNotes();
 
   override startInterval(): void {
     setInterval(() => this.clearExpiredSessions(), 15 * 60_000).unref();
   }
 
   override set(sid: string, sess: session.SessionData, cb?: (err?: unknown) => void): void {
-    this.renewedAt.set(sid, Date.now());
+    this.renewals.written(sid);
     super.set(sid, sess, cb);
   }
 
   override touch(sid: string, sess: session.SessionData, cb?: (err?: unknown) => void): void {
-    const now = Date.now();
-    const last = this.renewedAt.get(sid);
-    if (last !== undefined && now - last < sessionRenewalMs) {
-      cb?.();
-      return;
-    }
-    if (this.renewedAt.size > 10_000) {
-      for (const [id, at] of this.renewedAt) if (now - at >= sessionRenewalMs) this.renewedAt.delete(id);
-    }
-    this.renewedAt.set(sid, now);
-    super.touch(sid, sess, cb);
+    if (this.renewals.due(sid)) super.touch(sid, sess, cb);
+    else cb?.();
   }
 
   override destroy(sid: string, cb?: (err?: unknown) => void): void {
-    this.renewedAt.delete(sid);
+    this.renewals.forget(sid);
     super.destroy(sid, cb);
   }
 }
@@ -85,29 +101,20 @@ class QuietSqliteStore extends SqliteStore {
  * Its expiry sweep timer is already unref()ed.
  */
 class QuietPgStore extends PgStore {
-  private readonly renewedAt = new Map<string, number>();
+  private readonly renewals = new RenewalNotes();
 
   override set(sid: string, sess: session.SessionData, cb?: (err?: unknown) => void): void {
-    this.renewedAt.set(sid, Date.now());
+    this.renewals.written(sid);
     super.set(sid, sess, cb);
   }
 
   override touch(sid: string, sess: session.SessionData, cb?: () => void): void {
-    const now = Date.now();
-    const last = this.renewedAt.get(sid);
-    if (last !== undefined && now - last < sessionRenewalMs) {
-      cb?.();
-      return;
-    }
-    if (this.renewedAt.size > 10_000) {
-      for (const [id, at] of this.renewedAt) if (now - at >= sessionRenewalMs) this.renewedAt.delete(id);
-    }
-    this.renewedAt.set(sid, now);
-    super.touch(sid, sess, cb);
+    if (this.renewals.due(sid)) super.touch(sid, sess, cb);
+    else cb?.();
   }
 
   override destroy(sid: string, cb?: (err?: unknown) => void): void {
-    this.renewedAt.delete(sid);
+    this.renewals.forget(sid);
     super.destroy(sid, cb);
   }
 }
