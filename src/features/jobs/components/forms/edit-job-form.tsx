@@ -1,9 +1,9 @@
-import { useId, useState, type FormEvent } from 'react';
+import { type FormEvent } from 'react';
 import { updateJobBodySchema, type Job } from '../../../../../shared/schemas/sites.ts';
-import { firstFieldWithError, requestFormErrors, zodFormErrors, type FormErrors } from '../../../../lib/form-errors.ts';
+import { requestFormErrors, zodFormErrors } from '../../../../lib/form-errors.ts';
 import { useUpdateJob } from '../../api/update-job.ts';
 import { describedBy, FormField, inputClass } from '../../../../components/form-field.tsx';
-import { enterSubmits, FormFooter } from './form-parts.tsx';
+import { enterSubmits, FormFooter, useFormErrors } from './form-parts.tsx';
 
 const fields = ['reference', 'visitDate', 'visitEndDate'] as const;
 type Field = (typeof fields)[number];
@@ -11,15 +11,8 @@ type Field = (typeof fields)[number];
 /** A job's reference and visit dates. */
 export function EditJobForm({ job, onSaved }: { job: Job; onSaved: (job: Job) => void }) {
   const updateJob = useUpdateJob();
-  const [errors, setErrors] = useState<FormErrors<Field> | null>(null);
-  const baseId = useId();
-  const id = (field: Field) => `${baseId}-${field}`;
+  const { errors, setErrors, id, show, fieldError } = useFormErrors(fields);
 
-  function show(found: FormErrors<Field>) {
-    setErrors(found);
-    const first = firstFieldWithError(found, fields);
-    if (first) document.getElementById(id(first))?.focus();
-  }
 
   function handleSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -35,7 +28,6 @@ export function EditJobForm({ job, onSaved }: { job: Job; onSaved: (job: Job) =>
     updateJob.mutate({ jobId: job.id, body: parsed.data }, { onSuccess: onSaved, onError: (error) => show(requestFormErrors(error, fields, 'reference')) });
   }
 
-  const fieldError = (field: Field) => errors?.fields[field];
   const control = (field: Field, hasHint = false) => ({ id: id(field), name: field, ...describedBy(id(field), fieldError(field), hasHint) });
 
   return (

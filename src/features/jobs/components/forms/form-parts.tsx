@@ -1,4 +1,6 @@
 import type React from 'react';
+import { useId, useState } from 'react';
+import { firstFieldWithError, type FormErrors } from '../../../../lib/form-errors.ts';
 
 /** The submit button and the form's own message (a problem no single field owns). */
 export function FormFooter({ pending, label, pendingLabel, formError }: { pending: boolean; label: string; pendingLabel: string; formError?: string }) {
@@ -35,4 +37,21 @@ export function enterSubmits(event: React.KeyboardEvent<HTMLFormElement>) {
     event.preventDefault();
     event.currentTarget.requestSubmit();
   }
+}
+
+/**
+ * A form's errors and field ids: `show` keeps the errors and puts the cursor on the first field
+ * that has one (in the form's own order), `fieldError` reads one field's message.
+ */
+export function useFormErrors<Field extends string>(fields: readonly Field[]) {
+  const [errors, setErrors] = useState<FormErrors<Field> | null>(null);
+  const baseId = useId();
+  const id = (field: Field) => `${baseId}-${field}`;
+  function show(found: FormErrors<Field>) {
+    setErrors(found);
+    const first = firstFieldWithError(found, fields);
+    if (first) document.getElementById(id(first))?.focus();
+  }
+  const fieldError = (field: Field) => errors?.fields[field];
+  return { errors, setErrors, id, show, fieldError };
 }

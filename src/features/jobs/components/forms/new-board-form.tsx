@@ -1,10 +1,10 @@
-import { useId, useState, type FormEvent } from 'react';
+import { useState, type FormEvent } from 'react';
 import { boardLayouts, createBoardBodySchema } from '../../../../../shared/schemas/sites.ts';
-import { firstFieldWithError, numberOrText, requestFormErrors, zodFormErrors, type FormErrors } from '../../../../lib/form-errors.ts';
+import { numberOrText, requestFormErrors, zodFormErrors } from '../../../../lib/form-errors.ts';
 import { useCreateBoard } from '../../api/create-board.ts';
 import type { SiteWithJobs } from '../../api/get-jobs.ts';
 import { describedBy, FormField, inputClass } from '../../../../components/form-field.tsx';
-import { enterSubmits, FormFooter } from './form-parts.tsx';
+import { enterSubmits, FormFooter, useFormErrors } from './form-parts.tsx';
 
 const fields = ['jobId', 'reference', 'location', 'suppliedFrom', 'copyFromBoardId', 'layout', 'ways'] as const;
 type Field = (typeof fields)[number];
@@ -29,21 +29,14 @@ export interface NewBoardFormProps {
  */
 export function NewBoardForm({ tree, jobId: initialJobId, fixedJob = false, onCreated }: NewBoardFormProps) {
   const createBoard = useCreateBoard();
-  const [errors, setErrors] = useState<FormErrors<Field> | null>(null);
+  const { errors, setErrors, id, show, fieldError } = useFormErrors(fields);
   const allJobs = tree.flatMap((entry) => entry.jobs.map((j) => ({ ...j, site: entry.site })));
   const jobs = fixedJob ? allJobs.filter((entry) => entry.job.id === initialJobId) : allJobs;
   const [jobId, setJobId] = useState<number | null>(initialJobId ?? jobs[0]?.job.id ?? null);
   const [copyFrom, setCopyFrom] = useState('');
   const boards = allJobs.flatMap((entry) => entry.boards);
   const copied = boards.find((board) => String(board.id) === copyFrom);
-  const baseId = useId();
-  const id = (field: Field) => `${baseId}-${field}`;
 
-  function show(found: FormErrors<Field>) {
-    setErrors(found);
-    const first = firstFieldWithError(found, fields);
-    if (first) document.getElementById(id(first))?.focus();
-  }
 
   function handleSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -60,7 +53,6 @@ export function NewBoardForm({ tree, jobId: initialJobId, fixedJob = false, onCr
     createBoard.mutate({ jobId, body: parsed.data }, { onSuccess: onCreated, onError: (error) => show(requestFormErrors(error, fields)) });
   }
 
-  const fieldError = (field: Field) => errors?.fields[field];
   const control = (field: Field, hasHint = false) => ({ id: id(field), name: field, ...describedBy(id(field), fieldError(field), hasHint) });
 
   return (

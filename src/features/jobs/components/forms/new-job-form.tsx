@@ -1,10 +1,10 @@
-import { useId, useState, type FormEvent } from 'react';
+import { useState, type FormEvent } from 'react';
 import { createJobBodySchema, jobKinds, type Job } from '../../../../../shared/schemas/sites.ts';
-import { firstFieldWithError, requestFormErrors, zodFormErrors, type FormErrors } from '../../../../lib/form-errors.ts';
+import { requestFormErrors, zodFormErrors } from '../../../../lib/form-errors.ts';
 import { useCreateJob } from '../../api/create-job.ts';
 import type { SiteWithJobs } from '../../api/get-jobs.ts';
 import { describedBy, FormField, inputClass } from '../../../../components/form-field.tsx';
-import { enterSubmits, FormFooter, todayText } from './form-parts.tsx';
+import { enterSubmits, FormFooter, todayText, useFormErrors } from './form-parts.tsx';
 
 const fields = ['siteId', 'kind', 'reference', 'visitDate', 'visitEndDate', 'startFromJobId'] as const;
 type Field = (typeof fields)[number];
@@ -28,18 +28,11 @@ export interface NewJobFormProps {
  */
 export function NewJobForm({ tree, siteId: initialSiteId, onCreated }: NewJobFormProps) {
   const createJob = useCreateJob();
-  const [errors, setErrors] = useState<FormErrors<Field> | null>(null);
+  const { errors, setErrors, id, show, fieldError } = useFormErrors(fields);
   const [siteId, setSiteId] = useState<number | null>(initialSiteId ?? tree[0]?.site.id ?? null);
   const [kind, setKind] = useState<Job['kind']>('EICR');
-  const baseId = useId();
-  const id = (field: Field) => `${baseId}-${field}`;
   const earlierJobs = tree.find((entry) => entry.site.id === siteId)?.jobs.map((entry) => entry.job) ?? [];
 
-  function show(found: FormErrors<Field>) {
-    setErrors(found);
-    const first = firstFieldWithError(found, fields);
-    if (first) document.getElementById(id(first))?.focus();
-  }
 
   function handleSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -61,7 +54,6 @@ export function NewJobForm({ tree, siteId: initialSiteId, onCreated }: NewJobFor
     createJob.mutate(parsed.data, { onSuccess: onCreated, onError: (error) => show(requestFormErrors(error, fields, 'reference')) });
   }
 
-  const fieldError = (field: Field) => errors?.fields[field];
   const control = (field: Field, hasHint = false) => ({ id: id(field), name: field, ...describedBy(id(field), fieldError(field), hasHint) });
 
   return (

@@ -1,4 +1,4 @@
-import { useId, useState, type FormEvent } from 'react';
+import { type FormEvent } from 'react';
 import {
   createSiteBodySchema,
   earthingArrangements,
@@ -7,11 +7,11 @@ import {
   type Site,
   type SiteFields,
 } from '../../../../../shared/schemas/sites.ts';
-import { firstFieldWithError, numberOrText, requestFormErrors, zodFormErrors, type FormErrors } from '../../../../lib/form-errors.ts';
+import { numberOrText, requestFormErrors, zodFormErrors } from '../../../../lib/form-errors.ts';
 import { useCreateSite } from '../../api/create-site.ts';
 import { useUpdateSite } from '../../api/update-site.ts';
 import { describedBy, FormField, inputClass } from '../../../../components/form-field.tsx';
-import { enterSubmits, FormFooter } from './form-parts.tsx';
+import { enterSubmits, FormFooter, useFormErrors } from './form-parts.tsx';
 
 const fields = ['client', 'address', 'description', 'contactName', 'contactEmail', 'earthing', 'nominalVoltageV', 'zeOhm', 'pfcKa'] as const;
 type Field = (typeof fields)[number];
@@ -57,15 +57,8 @@ export function SiteForm({ site, onSaved }: SiteFormProps) {
   const createSite = useCreateSite();
   const updateSite = useUpdateSite();
   const pending = createSite.isPending || updateSite.isPending;
-  const [errors, setErrors] = useState<FormErrors<Field> | null>(null);
-  const baseId = useId();
-  const id = (field: Field) => `${baseId}-${field}`;
+  const { errors, setErrors, id, show, fieldError } = useFormErrors(fields);
 
-  function show(found: FormErrors<Field>) {
-    setErrors(found);
-    const first = firstFieldWithError(found, fields);
-    if (first) document.getElementById(id(first))?.focus();
-  }
 
   function handleSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -91,7 +84,6 @@ export function SiteForm({ site, onSaved }: SiteFormProps) {
     updateSite.mutate({ siteId: site.id, body: parsed.data }, { onSuccess: onSaved, onError: (error) => show(requestFormErrors(error, fields)) });
   }
 
-  const fieldError = (field: Field) => errors?.fields[field];
   const control = (field: Field, hasHint = false) => ({ id: id(field), name: field, ...describedBy(id(field), fieldError(field), hasHint) });
 
   return (
